@@ -1,0 +1,74 @@
+#include "graph/mu_separation.h"
+
+#include <bit>
+
+namespace locind::graph {
+
+Mask Ancestors(const BitGraph& g, Mask c) {
+  Mask found = c;
+  Mask todo = c;
+  while (todo != 0) {
+    const int v = std::countr_zero(todo);
+    todo &= todo - 1;
+    const Mask fresh = g.parents[v] & ~found;
+    found |= fresh;
+    todo |= fresh;
+  }
+  return found;
+}
+
+Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
+  Reach reach;
+  if (Contains(c, a)) return reach;
+  Mask todo_head = 0;
+  Mask todo_tail = 0;
+  auto arrive = [&](Mask heads, Mask tails) {
+    heads &= ~reach.head;
+    tails &= ~reach.tail;
+    reach.head |= heads;
+    reach.tail |= tails;
+    todo_head |= heads;
+    todo_tail |= tails;
+  };
+  // The start node is not an inner node: every edge at a may be taken.
+  arrive(g.children[a] | g.siblings[a], g.parents[a]);
+  while ((todo_head | todo_tail) != 0) {
+    if (todo_tail != 0) {
+      // Arrived with a tail: v is a non-collider whatever edge leaves it.
+      const int v = std::countr_zero(todo_tail);
+      todo_tail &= todo_tail - 1;
+      if (!Contains(c, v)) arrive(g.children[v] | g.siblings[v], g.parents[v]);
+      continue;
+    }
+    const int v = std::countr_zero(todo_head);
+    todo_head &= todo_head - 1;
+    // Leaving along a tail makes v a non-collider; along an arrowhead, a collider.
+    if (!Contains(c, v)) arrive(g.children[v], 0);
+    if (Contains(ancestors_of_c, v)) arrive(g.siblings[v], g.parents[v]);
+  }
+  return reach;
+}
+
+Mask ConnectedFrom(const BitGraph& g, int a, Mask c) {
+  return Explore(g, a, c, Ancestors(g, c)).head;
+}
+
+bool MuSeparated(const BitGraph& g, int a, int b, Mask c) {
+  return !Contains(ConnectedFrom(g, a, c), b);
+}
+
+bool MuSeparated(const BitGraph& g, Mask a_set, Mask b_set, Mask c) {
+  const Mask ancestors = Ancestors(g, c);
+  for (Mask rest = a_set; rest != 0; rest &= rest - 1) {
+    const int a = std::countr_zero(rest);
+    if ((Explore(g, a, c, ancestors).head & b_set) != 0) return false;
+  }
+  return true;
+}
+
+bool Separable(const BitGraph& g, int a, int b) {
+  const Mask c = Ancestors(g, Bit(a) | Bit(b)) & ~Bit(a);
+  return MuSeparated(g, a, b, c);
+}
+
+}  // namespace locind::graph

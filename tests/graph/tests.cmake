@@ -1,0 +1,1 @@
+locind_test(tests/graph/mu_separation_test.cc)
