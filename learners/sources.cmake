@@ -1,0 +1,3 @@
+list(APPEND LOCIND_CORE_SOURCES
+  learners/oracle_test.cc
+)
