@@ -1,1 +1,3 @@
 locind_test(tests/graph/mu_separation_test.cc)
+locind_test(tests/graph/latent_projection_test.cc)
+locind_test(tests/graph/equivalence_graph_test.cc)
