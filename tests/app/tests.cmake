@@ -1,0 +1,2 @@
+locind_test(tests/app/graph_file_test.cc)
+locind_test(tests/app/graph_command_test.cc)
