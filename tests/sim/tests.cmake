@@ -1,0 +1,2 @@
+locind_test(tests/sim/hawkes_model_test.cc)
+locind_test(tests/sim/hawkes_simulator_test.cc)
