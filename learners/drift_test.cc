@@ -1,0 +1,193 @@
+#include "learners/drift_test.h"
+
+#include <algorithm>
+#include <cmath>
+#include <string>
+
+#include "learners/reference_distributions.h"
+
+namespace locind::learners {
+namespace {
+
+std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
+  std::vector<int> out(a);
+  out.insert(out.end(), b.begin(), b.end());
+  std::sort(out.begin(), out.end());
+  out.erase(std::unique(out.begin(), out.end()), out.end());
+  return out;
+}
+
+TestResult NotEstimable(std::string reason) {
+  TestResult r;
+  r.status = TestStatus::kNotEstimable;
+  r.p_value = 1;
+  r.reason = std::move(reason);
+  return r;
+}
+
+}  // namespace
+
+std::vector<double> DefaultDriftRates(const sim::PathData& data, int count) {
+  double dt = 1;
+  if (data.samples() >= 2) dt = (data.time.back() - data.time.front()) / (data.samples() - 1);
+  std::vector<double> rates;
+  for (int k = 0; k < count; ++k) rates.push_back(1 / (dt * std::pow(10.0, k + 1)));
+  return rates;
+}
+
+Status ValidatePathData(const sim::PathData& data) {
+  if (data.samples() < 2) return Status::Error("at least two samples are needed");
+  if (data.values.rows() != data.samples() || data.values.cols() != data.processes()) {
+    return Status::Error("the value matrix must have one row per sample and one column per name");
+  }
+  for (int i = 0; i < data.samples(); ++i) {
+    if (!std::isfinite(data.time[i]) || (i > 0 && !(data.time[i] > data.time[i - 1]))) {
+      return Status::Error("sample times must be finite and strictly increasing");
+    }
+  }
+  if (!data.values.allFinite()) return Status::Error("values must be finite");
+  return Status::Ok();
+}
+
+LeastSquares FitLeastSquares(const Eigen::MatrixXd& x, const Eigen::VectorXd& y) {
+  Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr(x);
+  qr.setThreshold(1e-10);
+  LeastSquares out;
+  out.rank = static_cast<int>(qr.rank());
+  out.coefficients = qr.solve(y);
+  out.residuals = y - x * out.coefficients;
+  out.rss = out.residuals.squaredNorm();
+  return out;
+}
+
+Result<DriftTest> DriftTest::Create(sim::PathData data, DriftTestOptions options) {
+  if (Status s = ValidatePathData(data); !s.ok()) return s;
+  if (options.rates.empty()) options.rates = DefaultDriftRates(data);
+  for (double r : options.rates) {
+    if (!(r > 0) || !std::isfinite(r)) return Status::Error("filter rates must be positive and finite");
+  }
+  return DriftTest(std::move(data), std::move(options));
+}
+
+std::string DriftTest::kind() const {
+  return options_.statistic == DriftStatistic::kF ? "drift-f" : "drift-robust-wald";
+}
+
+const Eigen::MatrixXd& DriftTest::Columns(int process) {
+  auto it = columns_.find(process);
+  if (it != columns_.end()) return it->second;
+  const Eigen::Index n = data_.samples() - 1;
+  const int k_count = static_cast<int>(options_.rates.size());
+  Eigen::MatrixXd c(n, 1 + k_count);
+  c.col(0) = data_.values.col(process).head(n);
+  for (int k = 0; k < k_count; ++k) {
+    double filtered = data_.values(0, process);
+    c(0, 1 + k) = filtered;
+    for (Eigen::Index i = 1; i < n; ++i) {
+      const double a = std::exp(-options_.rates[k] * (data_.time[i] - data_.time[i - 1]));
+      filtered = a * filtered + (1 - a) * data_.values(i - 1, process);
+      c(i, 1 + k) = filtered;
+    }
+  }
+  return columns_.emplace(process, std::move(c)).first->second;
+}
+
+Eigen::MatrixXd DriftTest::Design(const std::vector<int>& covariates) {
+  const Eigen::Index n = data_.samples() - 1;
+  const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
+  Eigen::MatrixXd x(n, 1 + Eigen::Index(covariates.size()) * width);
+  x.col(0).setOnes();
+  for (size_t c = 0; c < covariates.size(); ++c) {
+    x.middleCols(1 + Eigen::Index(c) * width, width) = Columns(covariates[c]);
+  }
+  for (Eigen::Index i = 0; i < n; ++i) x.row(i) *= std::sqrt(data_.time[i + 1] - data_.time[i]);
+  return x;
+}
+
+Eigen::VectorXd DriftTest::Response(int target) const {
+  const Eigen::Index n = data_.samples() - 1;
+  Eigen::VectorXd y(n);
+  for (Eigen::Index i = 0; i < n; ++i) {
+    y[i] = (data_.values(i + 1, target) - data_.values(i, target)) /
+           std::sqrt(data_.time[i + 1] - data_.time[i]);
+  }
+  return y;
+}
+
+TestResult DriftTest::Run(const TestQuery& query) {
+  const auto key = std::make_tuple(query.target, query.sources, query.given);
+  auto it = cache_.find(key);
+  if (it == cache_.end()) it = cache_.emplace(key, Compute(query)).first;
+  return it->second;
+}
+
+namespace {
+
+// Robust (HC1) Wald statistic for the coefficients at `tested` columns.
+Result<double> RobustWald(const Eigen::MatrixXd& x, const LeastSquares& fit,
+                          const std::vector<int>& tested) {
+  const double n = double(x.rows()), p = double(x.cols());
+  Eigen::LDLT<Eigen::MatrixXd> gram(x.transpose() * x);
+  if (gram.info() != Eigen::Success) return Status::Error("singular design");
+  const Eigen::MatrixXd bread = gram.solve(Eigen::MatrixXd::Identity(x.cols(), x.cols()));
+  const Eigen::MatrixXd scaled = x.array().colwise() * fit.residuals.array();
+  const Eigen::MatrixXd cov = n / (n - p) * bread * (scaled.transpose() * scaled) * bread;
+  const Eigen::Index q = Eigen::Index(tested.size());
+  Eigen::MatrixXd v(q, q);
+  Eigen::VectorXd beta(q);
+  for (Eigen::Index i = 0; i < q; ++i) {
+    beta[i] = fit.coefficients[tested[i]];
+    for (Eigen::Index j = 0; j < q; ++j) v(i, j) = cov(tested[i], tested[j]);
+  }
+  Eigen::LDLT<Eigen::MatrixXd> vldlt(v);
+  if (vldlt.info() != Eigen::Success || (vldlt.vectorD().array() <= 0).any()) {
+    return Status::Error("singular design: the robust covariance is singular");
+  }
+  return beta.dot(vldlt.solve(beta));
+}
+
+}  // namespace
+
+TestResult DriftTest::Compute(const TestQuery& q) {
+  const std::vector<int> full = Union(q.sources, q.given);
+  const Eigen::MatrixXd x = Design(full);
+  const Eigen::Index n = x.rows(), p = x.cols();
+  if (n < p + 10) {
+    return NotEstimable("too few samples: " + std::to_string(n) + " increments for " +
+                        std::to_string(p) + " coefficients");
+  }
+  const Eigen::VectorXd y = Response(q.target);
+  const LeastSquares full_fit = FitLeastSquares(x, y);
+  if (full_fit.rank < p) {
+    return NotEstimable("singular design: rank " + std::to_string(full_fit.rank) + " of " +
+                        std::to_string(p) + " columns");
+  }
+  if (!(full_fit.rss > 0)) return NotEstimable("perfect fit: zero residuals");
+  // Columns of the tested (A) coefficients in the full design.
+  const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
+  std::vector<int> tested, kept = {0};
+  for (size_t c = 0; c < full.size(); ++c) {
+    const bool is_source = std::binary_search(q.sources.begin(), q.sources.end(), full[c]);
+    for (Eigen::Index k = 0; k < width; ++k) {
+      (is_source ? tested : kept).push_back(int(1 + Eigen::Index(c) * width + k));
+    }
+  }
+  TestResult r;
+  r.df = double(tested.size());
+  if (options_.statistic == DriftStatistic::kRobustWald) {
+    Result<double> w = RobustWald(x, full_fit, tested);
+    if (!w.ok()) return NotEstimable(w.status().message());
+    r.statistic = *w;
+    r.p_value = ChiSquaredSurvival(r.df, r.statistic);
+    return r;
+  }
+  Eigen::MatrixXd xr(n, Eigen::Index(kept.size()));
+  for (size_t i = 0; i < kept.size(); ++i) xr.col(Eigen::Index(i)) = x.col(kept[i]);
+  const LeastSquares restricted = FitLeastSquares(xr, y);
+  const double df2 = double(n - p);
+  r.statistic = std::max(0.0, (restricted.rss - full_fit.rss) / r.df / (full_fit.rss / df2));
+  r.p_value = FSurvival(r.df, df2, r.statistic);
+  return r;
+}
+
+}  // namespace locind::learners

@@ -1,0 +1,290 @@
+#include "learners/hawkes_lr_test.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <string>
+
+#include "graph/random_stream.h"
+#include "learners/projected_newton.h"
+#include "learners/reference_distributions.h"
+
+namespace locind::learners {
+namespace {
+
+constexpr double kMinusInfinity = -std::numeric_limits<double>::infinity();
+
+std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
+  std::vector<int> out(a);
+  out.insert(out.end(), b.begin(), b.end());
+  std::sort(out.begin(), out.end());
+  out.erase(std::unique(out.begin(), out.end()), out.end());
+  return out;
+}
+
+// Softplus pieces for u = eta / s, computed without overflow.
+double Softplus(double u) { return u > 0 ? u + std::log1p(std::exp(-u)) : std::log1p(std::exp(u)); }
+double LogSoftplus(double u) { return u < -30 ? u : std::log(Softplus(u)); }
+double Logistic(double u) { return 1 / (1 + std::exp(-u)); }
+
+uint64_t HashList(const std::vector<int>& list) {
+  uint64_t h = 0x51ed27u;
+  for (int v : list) h = graph::MixBits(h ^ static_cast<uint64_t>(v));
+  return h;
+}
+
+}  // namespace
+
+// The data of one fit: event design Z = [1, x(t_i)] and either the exact
+// integrals J (linear) or the grid design U with weights (softplus).
+struct HawkesLrTest::Design {
+  Eigen::MatrixXd z;
+  Eigen::VectorXd integrals;
+  Eigen::MatrixXd grid;
+  Eigen::VectorXd grid_weights;
+  double scale = 1;  // softplus scale s
+};
+
+HawkesLrTest::HawkesLrTest(std::shared_ptr<HawkesFeatures> features, HawkesTestOptions options)
+    : features_(std::move(features)), options_(options) {}
+
+std::string HawkesLrTest::kind() const {
+  if (options_.link == HawkesLink::kSoftplus) return "hawkes-lr-signed";
+  return options_.boundary == BoundaryReference::kChiBarSquared ? "hawkes-lr-chibar" : "hawkes-lr";
+}
+
+HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int>& covariates) {
+  const int k_count = features_->basis_size();
+  const sim::EventData& data = features_->data();
+  const Eigen::Index n = static_cast<Eigen::Index>(data.times[target].size());
+  const Eigen::Index p = 1 + static_cast<Eigen::Index>(covariates.size()) * k_count;
+  Design d;
+  d.z.resize(n, p);
+  d.z.col(0).setOnes();
+  for (size_t c = 0; c < covariates.size(); ++c) {
+    d.z.middleCols(1 + Eigen::Index(c) * k_count, k_count) = features_->AtEvents(target, covariates[c]);
+  }
+  if (options_.link == HawkesLink::kLinear) {
+    d.integrals.resize(p);
+    d.integrals[0] = data.duration();
+    for (size_t c = 0; c < covariates.size(); ++c) {
+      d.integrals.segment(1 + Eigen::Index(c) * k_count, k_count) = features_->Integrals(covariates[c]);
+    }
+    return d;
+  }
+  const HawkesFeatures::Grid& grid = features_->QuadratureGrid();
+  d.grid.resize(static_cast<Eigen::Index>(grid.times.size()), p);
+  d.grid.col(0).setOnes();
+  for (size_t c = 0; c < covariates.size(); ++c) {
+    d.grid.middleCols(1 + Eigen::Index(c) * k_count, k_count) = features_->AtGrid(covariates[c]);
+  }
+  d.grid_weights = grid.weights;
+  d.scale = std::max<double>(double(n), 1.0) / data.duration() / 10;
+  return d;
+}
+
+namespace {
+
+ConcaveObjective LinearObjective(const Eigen::MatrixXd& z, const Eigen::VectorXd& integrals) {
+  ConcaveObjective f;
+  f.value = [&](const Eigen::VectorXd& x) {
+    const Eigen::ArrayXd lambda = (z * x).array();
+    if (lambda.size() > 0 && lambda.minCoeff() <= 0) return kMinusInfinity;
+    return lambda.log().sum() - integrals.dot(x);
+  };
+  f.derivatives = [&](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
+    const Eigen::ArrayXd inverse = (z * x).array().inverse();
+    g = z.transpose() * inverse.matrix() - integrals;
+    const Eigen::MatrixXd scaled = z.array().colwise() * inverse;
+    h = -(scaled.transpose() * scaled);
+  };
+  return f;
+}
+
+// Softplus link lambda = s * softplus(eta / s): per-point pieces of the
+// log-likelihood's first and second derivatives in eta.
+ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::MatrixXd& grid,
+                                   const Eigen::VectorXd& w, double s) {
+  ConcaveObjective f;
+  f.value = [&, s](const Eigen::VectorXd& x) {
+    const Eigen::VectorXd eta = z * x, eta_grid = grid * x;
+    double value = 0;
+    for (Eigen::Index i = 0; i < eta.size(); ++i) value += std::log(s) + LogSoftplus(eta[i] / s);
+    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) value -= w[q] * s * Softplus(eta_grid[q] / s);
+    return std::isfinite(value) ? value : kMinusInfinity;
+  };
+  f.derivatives = [&, s](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
+    const Eigen::VectorXd eta = z * x, eta_grid = grid * x;
+    Eigen::VectorXd first(eta.size()), second(eta.size());
+    for (Eigen::Index i = 0; i < eta.size(); ++i) {
+      const double u = eta[i] / s;
+      // d/deta log lambda = sigma / (s sp); second derivative (1/s^2)(sigma(1-sigma)/sp - (sigma/sp)^2).
+      const double ratio = u < -30 ? 1.0 : Logistic(u) / Softplus(u);
+      first[i] = ratio / s;
+      const double curvature = u < -30 ? 0.0 : Logistic(u) * (1 - Logistic(u)) / Softplus(u) - ratio * ratio;
+      second[i] = std::min(0.0, curvature) / (s * s);
+    }
+    Eigen::VectorXd grid_first(eta_grid.size()), grid_second(eta_grid.size());
+    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) {
+      const double sigma = Logistic(eta_grid[q] / s);
+      grid_first[q] = w[q] * sigma;
+      grid_second[q] = w[q] * sigma * (1 - sigma) / s;
+    }
+    g = z.transpose() * first - grid.transpose() * grid_first;
+    const Eigen::MatrixXd a = z.array().colwise() * (-second.array()).sqrt();
+    const Eigen::MatrixXd b = grid.array().colwise() * grid_second.array().sqrt();
+    h = -(a.transpose() * a) - b.transpose() * b;
+  };
+  return f;
+}
+
+}  // namespace
+
+HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
+                            const Eigen::VectorXd* start) {
+  const Design d = BuildDesign(target, covariates);
+  const double rate = std::max<double>(double(d.z.rows()), 1.0) / features_->data().duration();
+  Eigen::VectorXd x0 = Eigen::VectorXd::Zero(d.z.cols());
+  Eigen::VectorXd lower = Eigen::VectorXd::Zero(d.z.cols());
+  NewtonResult r;
+  if (options_.link == HawkesLink::kLinear) {
+    x0[0] = rate;
+    if (start) x0 = *start;
+    r = MaximizeConcave(LinearObjective(d.z, d.integrals), x0, lower);
+  } else {
+    // eta such that s * softplus(eta / s) equals the mean rate.
+    x0[0] = d.scale * std::log(std::expm1(rate / d.scale));
+    if (start) x0 = *start;
+    lower.setConstant(-std::numeric_limits<double>::infinity());
+    r = MaximizeConcave(SoftplusObjective(d.z, d.grid, d.grid_weights, d.scale), x0, lower);
+  }
+  return HawkesFit{r.x, r.value, r.iterations, r.converged};
+}
+
+TestResult HawkesLrTest::Run(const TestQuery& query) {
+  const auto key = std::make_tuple(query.target, query.sources, query.given);
+  auto it = cache_.find(key);
+  if (it == cache_.end()) it = cache_.emplace(key, Compute(query)).first;
+  return it->second;
+}
+
+namespace {
+
+TestResult NotEstimable(std::string reason) {
+  TestResult r;
+  r.status = TestStatus::kNotEstimable;
+  r.p_value = 1;
+  r.reason = std::move(reason);
+  return r;
+}
+
+// True when the weighted Gram matrix of the grid design is numerically
+// rank deficient (eigenvalue ratio below 1e-12).
+bool GridDesignSingular(const Eigen::MatrixXd& grid, const Eigen::VectorXd& w) {
+  const Eigen::MatrixXd a = grid.array().colwise() * w.array().sqrt();
+  Eigen::MatrixXd gram = a.transpose() * a;
+  const Eigen::VectorXd scale = gram.diagonal().cwiseMax(1e-300).cwiseSqrt().cwiseInverse();
+  gram = scale.asDiagonal() * gram * scale.asDiagonal();
+  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(gram, Eigen::EigenvaluesOnly);
+  return eig.eigenvalues().minCoeff() <= 1e-12 * eig.eigenvalues().maxCoeff();
+}
+
+}  // namespace
+
+TestResult HawkesLrTest::Compute(const TestQuery& q) {
+  const sim::EventData& data = features_->data();
+  const size_t events = data.times[q.target].size();
+  if (events < size_t(options_.min_target_events)) {
+    return NotEstimable("too few events: '" + data.names[q.target] + "' has " +
+                        std::to_string(events) + ", at least " +
+                        std::to_string(options_.min_target_events) + " needed");
+  }
+  for (int a : q.sources) {
+    if (data.times[a].empty()) {
+      return NotEstimable("singular design: source '" + data.names[a] + "' has no events");
+    }
+  }
+  const std::vector<int> full = Union(q.sources, q.given);
+  if (options_.link == HawkesLink::kSoftplus) {
+    const Design d = BuildDesign(q.target, full);
+    if (GridDesignSingular(d.grid, d.grid_weights)) {
+      return NotEstimable("singular design: the history features are collinear");
+    }
+  }
+  const HawkesFit restricted = Fit(q.target, q.given);
+  if (!restricted.converged) {
+    return NotEstimable("failed fit: the restricted model did not converge in " +
+                        std::to_string(restricted.iterations) + " iterations");
+  }
+  // Warm start of the full model: the restricted estimate with theta_A = 0.
+  const int k_count = features_->basis_size();
+  Eigen::VectorXd start = Eigen::VectorXd::Zero(1 + Eigen::Index(full.size()) * k_count);
+  start[0] = restricted.parameters[0];
+  for (size_t c = 0; c < q.given.size(); ++c) {
+    const auto pos = std::find(full.begin(), full.end(), q.given[c]) - full.begin();
+    start.segment(1 + pos * k_count, k_count) =
+        restricted.parameters.segment(1 + Eigen::Index(c) * k_count, k_count);
+  }
+  const HawkesFit full_fit = Fit(q.target, full, &start);
+  if (!full_fit.converged) {
+    return NotEstimable("failed fit: the full model did not converge in " +
+                        std::to_string(full_fit.iterations) + " iterations");
+  }
+  TestResult r;
+  r.statistic = std::max(0.0, 2 * (full_fit.log_likelihood - restricted.log_likelihood));
+  r.df = double(q.sources.size()) * k_count;
+  r.p_value = PValue(q, full, restricted, r.statistic, r.df);
+  return r;
+}
+
+double HawkesLrTest::PValue(const TestQuery& q, const std::vector<int>& full,
+                            const HawkesFit& restricted, double statistic, double df) {
+  if (options_.link != HawkesLink::kLinear || options_.boundary != BoundaryReference::kChiBarSquared) {
+    return ChiSquaredSurvival(df, statistic);
+  }
+  if (statistic <= 0) return 1;
+  // Observed information at the restricted estimate, embedded in the full model.
+  const int k_count = features_->basis_size();
+  const Design d = BuildDesign(q.target, full);
+  Eigen::VectorXd x = Eigen::VectorXd::Zero(d.z.cols());
+  x[0] = restricted.parameters[0];
+  std::vector<int> kept;  // coordinates treated as free: mu, positive theta_C, all theta_A
+  std::vector<int> tested;
+  if (x[0] > 0) kept.push_back(0);
+  for (size_t c = 0; c < full.size(); ++c) {
+    const bool is_source = std::binary_search(q.sources.begin(), q.sources.end(), full[c]);
+    const auto given_pos = std::find(q.given.begin(), q.given.end(), full[c]) - q.given.begin();
+    for (int k = 0; k < k_count; ++k) {
+      const int col = 1 + int(c) * k_count + k;
+      if (is_source) {
+        tested.push_back(int(kept.size()));
+        kept.push_back(col);
+      } else {
+        x[col] = restricted.parameters[1 + given_pos * k_count + k];
+        if (x[col] > 0) kept.push_back(col);
+      }
+    }
+  }
+  Eigen::VectorXd g;
+  Eigen::MatrixXd h;
+  LinearObjective(d.z, d.integrals).derivatives(x, g, h);
+  Eigen::MatrixXd info(kept.size(), kept.size());
+  for (size_t i = 0; i < kept.size(); ++i) {
+    for (size_t j = 0; j < kept.size(); ++j) info(i, j) = -h(kept[i], kept[j]);
+  }
+  Eigen::LDLT<Eigen::MatrixXd> ldlt(info);
+  if (ldlt.info() != Eigen::Success || !ldlt.isPositive() || (ldlt.vectorD().array() <= 0).any()) {
+    return ChiSquaredSurvival(df, statistic);  // information singular: keep the conservative reference
+  }
+  const Eigen::MatrixXd cov = ldlt.solve(Eigen::MatrixXd::Identity(info.rows(), info.cols()));
+  Eigen::MatrixXd v(tested.size(), tested.size());
+  for (size_t i = 0; i < tested.size(); ++i) {
+    for (size_t j = 0; j < tested.size(); ++j) v(i, j) = cov(tested[i], tested[j]);
+  }
+  v = (v + v.transpose()) / 2;
+  graph::RandomStream random(graph::StreamKey{options_.seed, uint64_t(q.target),
+                                              HashList(q.sources), HashList(q.given)});
+  return ChiBarSquaredSurvival(ChiBarSquaredWeights(v, options_.chi_bar_draws, random), statistic);
+}
+
+}  // namespace locind::learners

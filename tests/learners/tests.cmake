@@ -1,0 +1,6 @@
+locind_test(tests/learners/oracle_test_test.cc)
+locind_test(tests/learners/reference_distributions_test.cc)
+locind_test(tests/learners/projected_newton_test.cc)
+locind_test(tests/learners/hawkes_features_test.cc)
+locind_test(tests/learners/hawkes_lr_test_test.cc)
+locind_test(tests/learners/drift_test_test.cc)
