@@ -30,9 +30,9 @@ TEST_CASE("graph check prints separated or connected") {
   // c -> b directly: connected whatever is conditioned on.
   CHECK(Run({"check", kExample, "--from", "c", "--to", "b", "--given", "a,b"}).out ==
         "connected\n");
-  // Nothing but the hidden h points into a, and h projects to a <-> c and
-  // the loop a -> a; b reaches a only through a collider at b... b has no edge
-  // with an arrowhead at a other than from a or c: given {a, c} a is shielded.
+  // Projection: a -> a, a -> b, b -> b, c -> b, c -> c, a <-> c. From b, the
+  // walks step back to a or c (both in C, blocked) or take b -> b and then
+  // need b as a collider, but b is no ancestor of {a, c}: separated.
   CHECK(Run({"check", kExample, "--from", "b", "--to", "a", "--given", "a,c"}).out ==
         "separated\n");
   // a <-> c (the hidden common parent h): c depends on a's past.

@@ -1,0 +1,70 @@
+// Maximal graph + equivalence graph for random sparse graphs with 6 to 16
+// observed nodes, and the speed-up over the test suite's definition-level
+// brute force (tests/graph/brute_force.h) at 6 and 8 nodes.
+//
+// Graphs: 2 hidden nodes among n + 2, expected in-degree 1.5, random loops,
+// projected onto the n observed nodes.
+#include <benchmark/benchmark.h>
+
+#include <chrono>
+
+#include "graph/equivalence_graph.h"
+#include "graph/latent_projection.h"
+#include "graph/random_stream.h"
+#include "graph/truth_graph.h"
+#include "tests/graph/brute_force.h"
+#include "tests/graph/graph_fixtures.h"
+
+namespace {
+
+using namespace locind::graph;
+
+BitGraph ProjectedGraph(int observed, uint64_t seed) {
+  RandomStream random(seed);
+  RandomGraphOptions o;
+  o.nodes = observed + 2;
+  o.expected_in_degree = 1.5;
+  o.hidden_count = 2;
+  const TruthGraph truth = RandomTruthGraph(o, random);
+  Mask hidden = 0;
+  for (int h : truth.hidden) hidden |= Bit(h);
+  return LatentProjection(*ToBitGraph(truth.graph), hidden);
+}
+
+void BM_EquivalenceGraph(benchmark::State& state) {
+  const int n = static_cast<int>(state.range(0));
+  int64_t graphs = 0;
+  uint64_t seed = 100;
+  for (auto _ : state) {
+    const BitGraph g = ProjectedGraph(n, seed++);
+    benchmark::DoNotOptimize(ComputeEquivalenceGraph(g));
+    ++graphs;
+  }
+  state.counters["graphs"] = static_cast<double>(graphs);
+}
+BENCHMARK(BM_EquivalenceGraph)
+    ->Arg(6)->Arg(8)->Arg(10)->Arg(12)->Arg(14)->Arg(16)
+    ->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime()->UseRealTime();
+
+void BM_SpeedupOverBruteForce(benchmark::State& state) {
+  const int n = static_cast<int>(state.range(0));
+  double engine = 0, brute = 0;
+  uint64_t seed = 100;
+  for (auto _ : state) {
+    const BitGraph g = ProjectedGraph(n, seed++);
+    auto t0 = std::chrono::steady_clock::now();
+    benchmark::DoNotOptimize(ComputeEquivalenceGraph(g));
+    auto t1 = std::chrono::steady_clock::now();
+    const auto max = locind::testing::BruteMaximal(locind::testing::ToBrute(g));
+    benchmark::DoNotOptimize(locind::testing::BruteDashed(max));
+    auto t2 = std::chrono::steady_clock::now();
+    engine += std::chrono::duration<double>(t1 - t0).count();
+    brute += std::chrono::duration<double>(t2 - t1).count();
+  }
+  state.counters["speedup"] = brute / engine;
+}
+BENCHMARK(BM_SpeedupOverBruteForce)->Arg(6)->Arg(8)->Unit(benchmark::kMillisecond)->Iterations(5);
+
+}  // namespace
+
+BENCHMARK_MAIN();

@@ -1,0 +1,17 @@
+#!/usr/bin/env bash
+# Configures and builds one build tree: scripts/build.sh release|asan [targets...]
+set -euo pipefail
+cd "$(dirname "$0")/.."
+kind="${1:-release}"
+shift || true
+case "$kind" in
+  release) flags=(-DCMAKE_BUILD_TYPE=Release) ;;
+  asan) flags=(-DCMAKE_BUILD_TYPE=RelWithDebInfo -DLOCIND_SANITIZE=ON -DLOCIND_BUILD_BENCH=OFF) ;;
+  *) echo "usage: scripts/build.sh release|asan [targets...]" >&2; exit 2 ;;
+esac
+cmake -S . -B "build/$kind" -G Ninja "${flags[@]}" >/dev/null
+if (($# > 0)); then
+  cmake --build "build/$kind" -j2 --target "$@"
+else
+  cmake --build "build/$kind" -j2
+fi

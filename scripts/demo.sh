@@ -1,0 +1,21 @@
+#!/usr/bin/env bash
+# Installs what is needed, builds locind, and runs the demo on the bundled
+# example. Outputs go to results/demo/.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+bash scripts/install-deps.sh
+bash scripts/build.sh release locind
+bin=build/release/locind
+out=results/demo
+mkdir -p "$out"
+example=examples/alarm_chain.yaml
+echo "== The example graph ($example; h is hidden)"
+cat "$example"
+echo "== Its latent projection onto the observed streams"
+"$bin" graph project "$example" | tee "$out/projection.yaml"
+echo "== The equivalence graph of the projection (dashed: missing from some equivalent graph)"
+"$bin" graph class "$example" | tee "$out/equivalence_graph.txt"
+"$bin" graph class "$example" --json > "$out/equivalence_graph.json"
+"$bin" graph draw "$example" -o "$out/truth.svg"
+"$bin" graph draw "$example" -o "$out/equivalence_graph.svg" --class
+echo "== Results in $out/: projection.yaml, equivalence_graph.{txt,json,svg}, truth.svg"

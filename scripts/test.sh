@@ -1,0 +1,19 @@
+#!/usr/bin/env bash
+# Installs what is needed, builds, and runs every test: the Release suite
+# (all tests, including the long calibration checks and the Python reference
+# checks) and the AddressSanitizer + UndefinedBehaviorSanitizer build of the
+# suite (without the long `calibration` label).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+bash scripts/install-deps.sh
+
+echo "== Release build and tests"
+bash scripts/build.sh release
+ctest --test-dir build/release -j2 --output-on-failure
+
+echo "== Sanitizer build (address, undefined) and tests"
+bash scripts/build.sh asan
+export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
+export ASAN_OPTIONS=detect_leaks=1
+export LSAN_OPTIONS="suppressions=$PWD/tests/lsan.supp"
+ctest --test-dir build/asan -j2 --output-on-failure -LE calibration
