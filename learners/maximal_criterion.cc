@@ -1,0 +1,79 @@
+#include "learners/maximal_criterion.h"
+
+namespace locind::learners {
+namespace {
+
+using graph::Bit;
+using graph::Contains;
+using graph::Mask;
+
+// Calls visit(C) for every subset C of `pool` (including the empty set),
+// in increasing order of the mask; stops when visit returns false.
+template <typename Visit>
+bool ForEachSubset(Mask pool, Visit visit) {
+  Mask c = 0;
+  while (true) {
+    if (!visit(c)) return false;
+    if (c == pool) return true;
+    c = (c - pool) & pool;  // next subset of pool in increasing order
+  }
+}
+
+}  // namespace
+
+bool Inseparable(SeparationAnswers& answers, int a, int b) {
+  const Mask pool = graph::AllNodes(answers.size()) & ~Bit(a);
+  return ForEachSubset(pool, [&](Mask c) { return answers.Connected(a, c, Bit(b)) != 0; });
+}
+
+bool InseparableBothWays(SeparationAnswers& answers, int a, int b) {
+  return Inseparable(answers, a, b) && Inseparable(answers, b, a);
+}
+
+bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
+  const int n = answers.size();
+  const Mask all = graph::AllNodes(n);
+  // (D2): conn(a, d | C) implies conn(b, d | C) for C without a and b. Ask the
+  // conclusion first: where b reaches d the premise need not be asked.
+  const bool d2 = ForEachSubset(all & ~Bit(a) & ~Bit(b), [&](Mask c) {
+    const Mask premise = answers.Possible(a, c);
+    const Mask from_b = answers.Connected(b, c, premise);
+    return answers.Connected(a, c, premise & ~from_b) == 0;
+  });
+  if (!d2) return false;
+  // (D3): with b in C and a outside, conn(g, d | C + a) implies conn(g, d | C).
+  return ForEachSubset(all & ~Bit(a) & ~Bit(b), [&](Mask rest) {
+    const Mask c = rest | Bit(b);
+    for (int g = 0; g < n; ++g) {
+      if (g == a || Contains(c, g)) continue;
+      const Mask premise = answers.Possible(g, c | Bit(a));
+      const Mask open = answers.Connected(g, c, premise);
+      if (answers.Connected(g, c | Bit(a), premise & ~open) != 0) return false;
+    }
+    return true;
+  });
+}
+
+namespace {
+
+// (B2) in one direction: with a in C, conn(g, a | C) implies conn(g, b | C).
+bool SiblingConditionOneWay(SeparationAnswers& answers, int a, int b) {
+  const int n = answers.size();
+  return ForEachSubset(graph::AllNodes(n) & ~Bit(a), [&](Mask rest) {
+    const Mask c = rest | Bit(a);
+    for (int g = 0; g < n; ++g) {
+      if (Contains(c, g) || !Contains(answers.Possible(g, c), a)) continue;
+      if (answers.Connected(g, c, Bit(b)) != 0) continue;
+      if (answers.Connected(g, c, Bit(a)) != 0) return false;
+    }
+    return true;
+  });
+}
+
+}  // namespace
+
+bool BidirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
+  return SiblingConditionOneWay(answers, a, b) && SiblingConditionOneWay(answers, b, a);
+}
+
+}  // namespace locind::learners
