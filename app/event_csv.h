@@ -13,7 +13,9 @@
 #include <istream>
 #include <ostream>
 #include <string>
+#include <string_view>
 #include <variant>
+#include <vector>
 
 #include "app/input_error.h"
 #include "sim/event_data.h"
@@ -32,5 +34,22 @@ std::string FormatEventCsv(const sim::EventData& data);
 // the window line, the window is [0, last event time].
 EventsOrError ReadEventCsv(std::istream& in, const std::string& file);
 EventsOrError ReadEventCsvFile(const std::string& path);
+
+// Pieces shared by the CSV readers and writers of app/.
+namespace csv {
+
+struct Field {
+  std::string_view text;
+  int column = 1;  // 1-based position of the field's first character
+};
+
+// Splits a line at commas (no quoting: names and numbers never need it).
+std::vector<Field> Split(std::string_view line);
+// A finite double written in full (no surrounding spaces); false otherwise.
+bool ParseNumber(std::string_view text, double& out);
+// The shortest text that reads back to the same double.
+std::string FormatNumber(double value);
+
+}  // namespace csv
 
 }  // namespace locind::app

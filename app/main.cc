@@ -14,6 +14,8 @@ using locind::app::Command;
 const Command kCommands[] = {
     {"graph", "mu-separation, latent projection, equivalence classes, drawings",
      locind::app::RunGraphCommand},
+    {"simulate", "one draw of a Hawkes or diffusion model file, written as CSV",
+     locind::app::RunSimulateCommand},
 };
 
 void PrintUsage(std::ostream& out) {

@@ -6,3 +6,4 @@ list(APPEND LOCIND_APP_SOURCES
   app/input_error.cc
   app/svg_render.cc
 )
+list(APPEND LOCIND_APP_SOURCES app/event_csv.cc app/path_csv.cc app/model_file.cc app/simulate_command.cc)
