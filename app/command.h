@@ -23,5 +23,6 @@ struct Command {
 // Handlers, one per file app/<name>_command.cc.
 int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 }  // namespace locind::app

@@ -16,6 +16,7 @@ const Command kCommands[] = {
      locind::app::RunGraphCommand},
     {"simulate", "one draw of a Hawkes or diffusion model file, written as CSV",
      locind::app::RunSimulateCommand},
+    {"learn", "run a learning method on data or on the oracle of a graph", locind::app::RunLearnCommand},
 };
 
 void PrintUsage(std::ostream& out) {
