@@ -1,2 +1,6 @@
 locind_test(tests/app/graph_file_test.cc)
 locind_test(tests/app/graph_command_test.cc)
+locind_test(tests/app/event_csv_test.cc)
+locind_test(tests/app/path_csv_test.cc)
+locind_test(tests/app/model_file_test.cc)
+locind_test(tests/app/simulate_command_test.cc)
