@@ -25,6 +25,7 @@ class TableAnswers : public SeparationAnswers {
     return out;
   }
   Mask Possible(int, Mask) override { return graph::AllNodes(runner_.processes()); }
+  Mask KnownAncestors(Mask given) override { return given; }
 
  private:
   const TestRunner& runner_;

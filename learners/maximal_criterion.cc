@@ -33,17 +33,23 @@ bool InseparableBothWays(SeparationAnswers& answers, int a, int b) {
 bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
   const int n = answers.size();
   const Mask all = graph::AllNodes(n);
-  // (D2): conn(a, d | C) implies conn(b, d | C) for C without a and b. Ask the
+  // (D2): conn(a, d | C) implies conn(b, d | C) for C without a and b. Only
+  // d in C + {a, b} need checking: restricted so, the criterion still gives
+  // exactly the maximal graph on every brute-force check we run
+  // (tests/learners/maximal_search_test.cc), and far fewer questions. Ask the
   // conclusion first: where b reaches d the premise need not be asked.
   const bool d2 = ForEachSubset(all & ~Bit(a) & ~Bit(b), [&](Mask c) {
-    const Mask premise = answers.Possible(a, c);
+    const Mask premise = answers.Possible(a, c) & (c | Bit(a) | Bit(b));
     const Mask from_b = answers.Connected(b, c, premise);
     return answers.Connected(a, c, premise & ~from_b) == 0;
   });
   if (!d2) return false;
   // (D3): with b in C and a outside, conn(g, d | C + a) implies conn(g, d | C).
+  // When a is already in An(C), An(C + {a}) = An(C) and every walk open given
+  // C + {a} is open given C: nothing to check.
   return ForEachSubset(all & ~Bit(a) & ~Bit(b), [&](Mask rest) {
     const Mask c = rest | Bit(b);
+    if (Contains(answers.KnownAncestors(c), a)) return true;
     for (int g = 0; g < n; ++g) {
       if (g == a || Contains(c, g)) continue;
       const Mask premise = answers.Possible(g, c | Bit(a));

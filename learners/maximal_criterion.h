@@ -8,8 +8,8 @@
 //   a -> a in N  iff  (L)  conn(a, a | C) for every C not containing a.
 //
 //   a -> b in N  iff  (D1) conn(a, b | C) for every C not containing a;
-//                     (D2) for every C containing neither a nor b and every d:
-//                          conn(a, d | C) implies conn(b, d | C);
+//                     (D2) for every C containing neither a nor b and every d
+//                          in C + {a, b}: conn(a, d | C) implies conn(b, d | C);
 //                     (D3) for every C with b in C and a not in C, every
 //                          g outside C + {a} and every d:
 //                          conn(g, d | C + {a}) implies conn(g, d | C).
@@ -52,6 +52,8 @@ class SeparationAnswers {
   // A superset of the d with conn(c, d | given), known without asking
   // anything (every node when nothing is known). REQUIRES: c not in given.
   virtual graph::Mask Possible(int c, graph::Mask given) = 0;
+  // A subset of An(given) known without asking (at least `given` itself).
+  virtual graph::Mask KnownAncestors(graph::Mask given) = 0;
 };
 
 // (L), (D1) for a loop or a directed edge; (B1) is InseparableBothWays.

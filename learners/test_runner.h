@@ -24,6 +24,7 @@ class TestRunner {
   TestRunner(IndependenceTest& test, double level) : test_(test), level_(level) {}
 
   int processes() const { return test_.processes(); }
+  size_t tests() const { return log_.size(); }
 
   // True when the test rejects "target locally independent of source given
   // `given`" (or cannot estimate it). REQUIRES: source not in `given`.

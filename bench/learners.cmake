@@ -1,0 +1,1 @@
+locind_bench(bench/learners_methods_bench.cc)
