@@ -13,7 +13,8 @@
 //    both directions;
 //  - it never applies the further conditions that drop inseparable pairs
 //    from N (learners/maximal_criterion.h), so inseparable pairs outside N
-//    stay. With k >= n - 2 the output is the graph of all inseparable pairs.
+//    stay. With k >= n - 1 (loops may need every other process) the output
+//    is the graph of all inseparable pairs.
 // It does not promise anything about dashed marks (it has none).
 #pragma once
 
