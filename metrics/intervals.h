@@ -1,0 +1,33 @@
+// Confidence intervals for the study summary.
+//
+//  - Wilson score interval for a binomial proportion (Wilson 1927, J. Amer.
+//    Statist. Assoc. 22(158)): used for power, false-edge rate and class
+//    recovery, pooled over replicates.
+//  - Percentile bootstrap interval for a mean (Efron & Tibshirani 1993, An
+//    Introduction to the Bootstrap, ch. 13): used for Hamming distance, tests
+//    made and seconds. Resamples are drawn from a RandomStream keyed by the
+//    caller, so intervals are reproducible.
+#pragma once
+
+#include <cstdint>
+#include <vector>
+
+#include "graph/random_stream.h"
+
+namespace locind::metrics {
+
+struct Interval {
+  double estimate = 0;  // NaN when undefined (no trials, no values)
+  double low = 0;
+  double high = 0;
+};
+
+// REQUIRES: 0 <= successes <= trials; 0 < confidence < 1.
+Interval WilsonInterval(int64_t successes, int64_t trials, double confidence = 0.95);
+
+// Mean of `values` with a percentile bootstrap interval from `resamples`
+// resamples. A single value gives a zero-width interval.
+Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
+                               graph::RandomStream& random, double confidence = 0.95);
+
+}  // namespace locind::metrics

@@ -1,0 +1,69 @@
+// ReplicateScore: one learned graph compared with the true class.
+//
+// Edges are grouped as directed (a -> b, a != b), loops (a -> a) and
+// bidirected (a <-> b). For each group and in total:
+//   in_class      reported edges that are in the maximal graph N
+//   false_edges   reported edges not in N (no equivalent graph has them)
+//   solid         solid edges of N;  solid_found  of those reported
+//   missed_solid  solid - solid_found
+//   dashed        dashed edges of N; dashed_found of those reported
+//                 (undetermined: reported apart, never in power or errors)
+// Power = solid_found / solid (NaN when solid = 0); false-edge rate =
+// false_edges / reported (NaN when nothing is reported); structural Hamming
+// distance to N = edges of N not reported + reported edges not in N;
+// class_recovered: the learned graph equals N exactly.
+#pragma once
+
+#include <array>
+#include <vector>
+
+#include "graph/dmg.h"
+#include "graph/edge.h"
+#include "metrics/truth_class.h"
+
+namespace locind::metrics {
+
+enum class EdgeGroup { kDirected = 0, kLoop = 1, kBidirected = 2 };
+inline constexpr int kEdgeGroups = 3;
+
+EdgeGroup GroupOf(const graph::Edge& e);
+const char* EdgeGroupName(EdgeGroup group);  // "directed", "loop", "bidirected"
+
+struct EdgeCounts {
+  int reported = 0;
+  int in_class = 0;
+  int false_edges = 0;
+  int solid = 0;
+  int solid_found = 0;
+  int missed_solid = 0;
+  int dashed = 0;
+  int dashed_found = 0;
+
+  EdgeCounts& operator+=(const EdgeCounts& o);
+};
+
+struct ReplicateScore {
+  std::array<EdgeCounts, kEdgeGroups> by_group;
+  EdgeCounts total;
+  double power = 0;            // NaN when total.solid == 0
+  double false_edge_rate = 0;  // NaN when total.reported == 0
+  int hamming = 0;
+  bool class_recovered = false;
+};
+
+// One row of the edge audit: an edge reported by the learner or solid in
+// the truth, with its status in the class and what the learner did.
+struct EdgeAudit {
+  graph::Edge edge;
+  TruthStatus truth = TruthStatus::kAbsent;
+  bool reported = false;
+};
+
+// REQUIRES: learned has the observed names of truth_class.projected, in order.
+ReplicateScore ScoreGraph(const TruthClass& truth_class, const graph::Dmg& learned);
+
+// Rows for every edge that is reported or solid in the truth, in ListEdges
+// order of the union.
+std::vector<EdgeAudit> AuditEdges(const TruthClass& truth_class, const graph::Dmg& learned);
+
+}  // namespace locind::metrics
