@@ -3,6 +3,7 @@
 #include "learners/exhaustive_learner.h"
 #include "learners/maximal_search.h"
 #include "learners/pairwise_learner.h"
+#include "learners/penalized_fit_learner.h"
 #include "learners/screening_learner.h"
 
 namespace locind::learners {
@@ -11,6 +12,10 @@ namespace {
 template <typename T>
 std::unique_ptr<Learner> MakePlain(const MethodSettings&) {
   return std::make_unique<T>();
+}
+
+std::unique_ptr<Learner> MakePenalizedFit(const MethodSettings& settings) {
+  return std::make_unique<PenalizedFitLearner>(settings.penalty);
 }
 
 std::unique_ptr<Learner> MakeScreening(const MethodSettings& settings) {
@@ -30,6 +35,8 @@ const std::vector<MethodEntry>& LearningMethods() {
        true, MakePlain<ExhaustiveLearner>},
       {"screen", "separation search with conditioning sets of at most k processes besides b",
        true, MakeScreening},
+      {"penalized-fit", "L1-penalized fit of every process on all others, no tests (needs data)",
+       false, MakePenalizedFit},
   };
   return methods;
 }

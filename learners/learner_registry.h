@@ -14,7 +14,7 @@ namespace locind::learners {
 // Settings a method may read; each method ignores the ones it does not use.
 struct MethodSettings {
   int screening_size = 1;  // screen: extra processes in C besides b
-  double penalty = -1;     // penalized-fit: L1 weight; < 0 picks the default rule
+  double penalty = -1;     // penalized-fit: scale of the L1 weight; <= 0 means 1
 };
 
 struct MethodEntry {

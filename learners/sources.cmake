@@ -7,6 +7,7 @@ list(APPEND LOCIND_CORE_SOURCES
   learners/maximal_criterion.cc
   learners/maximal_search.cc
   learners/pairwise_learner.cc
+  learners/penalized_fit_learner.cc
   learners/screening_learner.cc
   learners/test_runner.cc
   learners/drift_test.cc
