@@ -98,7 +98,7 @@ const HawkesFeatures::Grid& HawkesFeatures::QuadratureGrid() {
   std::vector<double> weights;
   for (size_t i = 0; i + 1 < cuts.size(); ++i) {
     const double length = cuts[i + 1] - cuts[i];
-    const int parts = std::max(1, static_cast<int>(std::ceil(length * max_rate / 0.5)));
+    const int parts = std::max(1, static_cast<int>(std::ceil(length * max_rate)));
     const double half = length / parts / 2;
     for (int p = 0; p < parts; ++p) {
       const double mid = cuts[i] + (2 * p + 1) * half;

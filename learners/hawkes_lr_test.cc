@@ -25,7 +25,6 @@ std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
 // Softplus pieces for u = eta / s, computed without overflow.
 double Softplus(double u) { return u > 0 ? u + std::log1p(std::exp(-u)) : std::log1p(std::exp(u)); }
 double LogSoftplus(double u) { return u < -30 ? u : std::log(Softplus(u)); }
-double Logistic(double u) { return 1 / (1 + std::exp(-u)); }
 
 uint64_t HashList(const std::vector<int>& list) {
   uint64_t h = 0x51ed27u;
@@ -101,39 +100,57 @@ ConcaveObjective LinearObjective(const Eigen::MatrixXd& z, const Eigen::VectorXd
   return f;
 }
 
-// Softplus link lambda = s * softplus(eta / s): per-point pieces of the
-// log-likelihood's first and second derivatives in eta.
+// Softplus link lambda = s * softplus(eta / s). Per point, with u = eta / s
+// and e = exp(-|u|) (one exponential): softplus(u) = max(u, 0) + log1p(e),
+// sigma(u) = 1/(1+e) or e/(1+e), sigma (1 - sigma) = e / (1+e)^2.
+struct SoftplusPoint {
+  double softplus, sigma, sigma_slope;
+};
+SoftplusPoint SoftplusAt(double u) {
+  const double e = std::exp(-std::abs(u));
+  const double inv = 1 / (1 + e);
+  return {std::max(u, 0.0) + std::log1p(e), u >= 0 ? inv : e * inv, e * inv * inv};
+}
+
 ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::MatrixXd& grid,
                                    const Eigen::VectorXd& w, double s) {
   ConcaveObjective f;
   f.value = [&, s](const Eigen::VectorXd& x) {
     const Eigen::VectorXd eta = z * x, eta_grid = grid * x;
-    double value = 0;
-    for (Eigen::Index i = 0; i < eta.size(); ++i) value += std::log(s) + LogSoftplus(eta[i] / s);
-    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) value -= w[q] * s * Softplus(eta_grid[q] / s);
+    double value = double(eta.size()) * std::log(s);
+    for (Eigen::Index i = 0; i < eta.size(); ++i) value += LogSoftplus(eta[i] / s);
+    double integral = 0;
+    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) integral += w[q] * Softplus(eta_grid[q] / s);
+    value -= s * integral;
     return std::isfinite(value) ? value : kMinusInfinity;
   };
   f.derivatives = [&, s](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
     const Eigen::VectorXd eta = z * x, eta_grid = grid * x;
-    Eigen::VectorXd first(eta.size()), second(eta.size());
+    // Events: d/deta log lambda = sigma / (s sp); second derivative
+    // (sigma (1 - sigma) / sp - (sigma / sp)^2) / s^2 <= 0 (log softplus is concave).
+    Eigen::VectorXd first(eta.size()), weight(eta.size());
     for (Eigen::Index i = 0; i < eta.size(); ++i) {
       const double u = eta[i] / s;
-      // d/deta log lambda = sigma / (s sp); second derivative (1/s^2)(sigma(1-sigma)/sp - (sigma/sp)^2).
-      const double ratio = u < -30 ? 1.0 : Logistic(u) / Softplus(u);
+      if (u < -30) {  // log lambda ~ log s + u: linear in eta
+        first[i] = 1 / s;
+        weight[i] = 0;
+        continue;
+      }
+      const SoftplusPoint p = SoftplusAt(u);
+      const double ratio = p.sigma / p.softplus;
       first[i] = ratio / s;
-      const double curvature = u < -30 ? 0.0 : Logistic(u) * (1 - Logistic(u)) / Softplus(u) - ratio * ratio;
-      second[i] = std::min(0.0, curvature) / (s * s);
+      weight[i] = std::max(0.0, ratio * ratio - p.sigma_slope / p.softplus) / (s * s);
     }
-    Eigen::VectorXd grid_first(eta_grid.size()), grid_second(eta_grid.size());
+    Eigen::VectorXd grid_first(eta_grid.size()), grid_weight(eta_grid.size());
     for (Eigen::Index q = 0; q < eta_grid.size(); ++q) {
-      const double sigma = Logistic(eta_grid[q] / s);
-      grid_first[q] = w[q] * sigma;
-      grid_second[q] = w[q] * sigma * (1 - sigma) / s;
+      const SoftplusPoint p = SoftplusAt(eta_grid[q] / s);
+      grid_first[q] = w[q] * p.sigma;
+      grid_weight[q] = w[q] * p.sigma_slope / s;
     }
     g = z.transpose() * first - grid.transpose() * grid_first;
-    const Eigen::MatrixXd a = z.array().colwise() * (-second.array()).sqrt();
-    const Eigen::MatrixXd b = grid.array().colwise() * grid_second.array().sqrt();
-    h = -(a.transpose() * a) - b.transpose() * b;
+    const Eigen::MatrixXd z_weighted = z.array().colwise() * weight.array();
+    const Eigen::MatrixXd grid_weighted = grid.array().colwise() * grid_weight.array();
+    h = -(z.transpose() * z_weighted) - grid.transpose() * grid_weighted;
   };
   return f;
 }
