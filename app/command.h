@@ -24,5 +24,6 @@ struct Command {
 int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 }  // namespace locind::app

@@ -17,6 +17,7 @@ const Command kCommands[] = {
     {"simulate", "one draw of a Hawkes or diffusion model file, written as CSV",
      locind::app::RunSimulateCommand},
     {"learn", "run a learning method on data or on the oracle of a graph", locind::app::RunLearnCommand},
+    {"test", "one local-independence test on a data file", locind::app::RunTestCommand},
 };
 
 void PrintUsage(std::ostream& out) {
