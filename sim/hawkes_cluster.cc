@@ -93,6 +93,7 @@ Result<NodeTimes> SimulateByClusters(const HawkesModel& model, const HawkesRunOp
     }
   }
   for (auto& t : times) std::sort(t.begin(), t.end());
+  if (options.stats) *options.stats = HawkesRunStats{count, 0};
   return times;
 }
 

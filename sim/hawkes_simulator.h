@@ -27,6 +27,12 @@ namespace locind::sim {
 
 enum class HawkesMethod { kAuto, kThinning, kCluster };
 
+// Work counts of one draw (for benchmarks and diagnostics).
+struct HawkesRunStats {
+  int64_t events = 0;     // simulated, burn-in and hidden nodes included
+  int64_t proposals = 0;  // thinning: candidate points drawn (accepted or not)
+};
+
 struct HawkesRunOptions {
   double horizon = 100;   // length of the recorded window, > 0
   double burn_in = 0;     // simulated before the window, >= 0
@@ -37,6 +43,7 @@ struct HawkesRunOptions {
   // work. When true they are simulated until the horizon or the event cap.
   bool allow_nonstationary = false;
   HawkesMethod method = HawkesMethod::kAuto;
+  HawkesRunStats* stats = nullptr;  // when set, receives the work counts
 };
 
 // Draws the process. Fails (without partial data) on an invalid model or

@@ -30,13 +30,16 @@ constexpr double kRescaleExponent = 200;
 
 // Sums over a fixed set of non-negative weights with point updates and
 // search by cumulative weight (Fenwick 1994, Softw. Pract. Exper. 24(3)).
+// The tree is padded to a power of two so the search runs without
+// data-dependent branches (mispredicted branches dominate a binary search).
 class FenwickTree {
  public:
-  explicit FenwickTree(int n) : tree_(n + 1, 0.0) {
-    while ((1 << (levels_ + 1)) <= n) ++levels_;
+  explicit FenwickTree(int n) : n_(n) {
+    while (size_ < n + 1) size_ *= 2;
+    tree_.assign(size_, 0.0);
   }
   void Add(int i, double delta) {
-    for (int j = i + 1; j < static_cast<int>(tree_.size()); j += j & -j) tree_[j] += delta;
+    for (int j = i + 1; j < size_; j += j & -j) tree_[j] += delta;
   }
   void Rebuild(const std::vector<double>& values) {
     std::fill(tree_.begin(), tree_.end(), 0.0);
@@ -45,20 +48,61 @@ class FenwickTree {
   // The smallest i whose cumulative weight up to and including i exceeds v
   // (clamped to the last index).
   int Find(double v) const {
-    const int n = static_cast<int>(tree_.size()) - 1;
     int pos = 0;
-    for (int step = 1 << levels_; step > 0; step >>= 1) {
-      if (pos + step <= n && tree_[pos + step] <= v) {
-        pos += step;
-        v -= tree_[pos];
-      }
+    for (int step = size_ / 2; step > 0; step >>= 1) {
+      const double w = tree_[pos + step];
+      const int right = w <= v;  // 0 or 1; arithmetic instead of a branch
+      pos += step & -right;
+      v -= w * right;
     }
-    return std::min(pos, n - 1);
+    return std::min(pos, n_ - 1);
   }
 
  private:
+  int n_;
+  int size_ = 1;
   std::vector<double> tree_;
-  int levels_ = 0;
+};
+
+// Walker's alias table (Walker 1977, ACM Trans. Math. Softw. 3(3)): picks
+// index i with probability weight_i / sum in O(1) from one uniform.
+class AliasTable {
+ public:
+  explicit AliasTable(const std::vector<double>& weights)
+      : n_(static_cast<int>(weights.size())), keep_(n_, 1.0), alias_(n_) {
+    double total = 0;
+    for (double w : weights) total += w;
+    if (total <= 0) return;
+    std::vector<double> scaled(n_);
+    std::vector<int> small, large;
+    for (int i = 0; i < n_; ++i) {
+      alias_[i] = i;
+      scaled[i] = weights[i] * n_ / total;
+      (scaled[i] < 1 ? small : large).push_back(i);
+    }
+    while (!small.empty() && !large.empty()) {
+      const int s = small.back(), l = large.back();
+      small.pop_back();
+      keep_[s] = scaled[s];
+      alias_[s] = l;
+      scaled[l] -= 1 - scaled[s];
+      if (scaled[l] < 1) {
+        large.pop_back();
+        small.push_back(l);
+      }
+    }
+  }
+  // REQUIRES: 0 <= u < 1.
+  int Pick(double u) const {
+    const double x = u * n_;
+    const int i = std::min(static_cast<int>(x), n_ - 1);
+    return (x - i) < keep_[i] ? i : alias_[i];
+  }
+
+ private:
+  int n_;
+  std::vector<double> keep_;
+  std::vector<int> alias_;
 };
 
 // A jump of size `amount` (= w beta) in group `group` of node `to`.
@@ -92,15 +136,15 @@ class LinearThinning {
  public:
   LinearThinning(const HawkesModel& model, const HawkesRunOptions& options,
                  graph::RandomStream& random)
-      : options_(options), random_(random), rec_(BuildRecursion(model)), n_(model.nodes()) {
-    double sum = 0;
-    for (double mu : model.baseline) base_cumulative_.push_back(sum += mu);
-    base_total_ = sum;
+      : options_(options), random_(random), rec_(BuildRecursion(model)), n_(model.nodes()),
+        base_pick_(model.baseline) {
+    for (double mu : model.baseline) base_total_ += mu;
     const size_t groups = rec_.decay.size();
     epoch_.assign(groups, -options.burn_in);
     scaled_.assign(groups, std::vector<double>(n_, 0.0));
     total_.assign(groups, 0.0);
     factor_.assign(groups, 1.0);
+    inverse_.assign(groups, 1.0);
     part_.assign(groups, 0.0);
     trees_.assign(groups, FenwickTree(n_));
   }
@@ -114,6 +158,7 @@ class LinearThinning {
     while (bound > 0) {
       t += exponential(random_.engine()) / bound;
       if (t >= options_.horizon) break;
+      ++proposals_;
       const double intensity = IntensityAt(t);
       const double v = random_.Uniform() * bound;
       if (v >= intensity) {  // rejected: the intensity at t bounds what follows
@@ -125,6 +170,7 @@ class LinearThinning {
       times[node].push_back(t);
       bound = intensity + Excite(node);
     }
+    if (options_.stats) *options_.stats = HawkesRunStats{count, proposals_};
     return times;
   }
 
@@ -155,10 +201,9 @@ class LinearThinning {
 
   // The node whose share of the total intensity contains v.
   int Select(double v) const {
-    if (v < base_total_) {
-      auto it = std::upper_bound(base_cumulative_.begin(), base_cumulative_.end(), v);
-      return std::min(static_cast<int>(it - base_cumulative_.begin()), n_ - 1);
-    }
+    // Given acceptance, v is uniform on [0, intensity), so v / base_total
+    // is uniform on [0, 1) when v falls in the baseline share.
+    if (v < base_total_) return base_pick_.Pick(v / base_total_);
     v -= base_total_;
     if (rec_.decay.empty()) return n_ - 1;
     const size_t last = rec_.decay.size() - 1;
@@ -170,9 +215,10 @@ class LinearThinning {
 
   // Adds the jumps caused by an event of `node`; returns their total.
   double Excite(int node) {
+    for (size_t d = 0; d < factor_.size(); ++d) inverse_[d] = 1 / factor_[d];
     double jump = 0;
     for (const Push& p : rec_.pushes[node]) {
-      const double z = p.amount / factor_[p.group];
+      const double z = p.amount * inverse_[p.group];
       scaled_[p.group][p.to] += z;
       total_[p.group] += z;
       trees_[p.group].Add(p.to, z);
@@ -185,14 +231,16 @@ class LinearThinning {
   graph::RandomStream& random_;
   Recursion rec_;
   int n_;
-  std::vector<double> base_cumulative_;
+  AliasTable base_pick_;
   double base_total_ = 0;
   std::vector<double> epoch_;                // per group
   std::vector<std::vector<double>> scaled_;  // per group, per node
   std::vector<double> total_;                // per group: sum of scaled_
   std::vector<double> factor_;               // per group: exp(-beta (t - epoch))
+  std::vector<double> inverse_;              // per group: 1 / factor_
   std::vector<double> part_;                 // per group: factor * total
   std::vector<FenwickTree> trees_;
+  int64_t proposals_ = 0;
 };
 
 double ApplyLink(Link link, double x) {
@@ -222,6 +270,7 @@ class NonlinearThinning {
     while (bound > 0) {
       const double next = t + exponential(random_.engine()) / bound;
       if (next >= options_.horizon) break;
+      ++proposals_;
       Decay(next - t);
       t = next;
       const double total = Intensities();
@@ -235,6 +284,7 @@ class NonlinearThinning {
       }
       bound = Bound();
     }
+    if (options_.stats) *options_.stats = HawkesRunStats{count, proposals_};
     return times;
   }
 
@@ -289,6 +339,7 @@ class NonlinearThinning {
   std::vector<double> inhibit_;  // node-major, per group: magnitudes of negative states
   std::vector<double> intensity_;
   std::vector<double> step_;
+  int64_t proposals_ = 0;
 };
 
 }  // namespace
