@@ -23,7 +23,7 @@ struct TruthClass {
   graph::TruthGraph truth;
   graph::Dmg projected;  // observed nodes, in truth.Observed() order
   graph::Dmg maximal;    // maximal graph of the class of `projected`
-  std::vector<graph::Edge> edges;  // edges of `maximal`, ListEdges order
+  std::vector<graph::Edge> edges;  // edges of `maximal`, sorted by (from, to, kind)
   std::vector<bool> dashed;        // dashed[i] for edges[i]
 
   // Status of an edge (over the observed nodes) in the class.

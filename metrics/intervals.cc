@@ -1,0 +1,52 @@
+#include "metrics/intervals.h"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+#include <limits>
+
+#include <boost/math/distributions/normal.hpp>
+
+namespace locind::metrics {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+double NormalQuantile(double p) { return boost::math::quantile(boost::math::normal(), p); }
+
+}  // namespace
+
+Interval WilsonInterval(int64_t successes, int64_t trials, double confidence) {
+  assert(successes >= 0 && successes <= trials && confidence > 0 && confidence < 1);
+  if (trials == 0) return {kNaN, kNaN, kNaN};
+  const double n = static_cast<double>(trials);
+  const double p = successes / n;
+  const double z = NormalQuantile(0.5 + confidence / 2);
+  const double z2 = z * z;
+  const double centre = (p + z2 / (2 * n)) / (1 + z2 / n);
+  const double half = z / (1 + z2 / n) * std::sqrt(p * (1 - p) / n + z2 / (4 * n * n));
+  return {p, std::max(0.0, centre - half), std::min(1.0, centre + half)};
+}
+
+Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
+                               graph::RandomStream& random, double confidence) {
+  if (values.empty()) return {kNaN, kNaN, kNaN};
+  const size_t n = values.size();
+  double sum = 0;
+  for (double v : values) sum += v;
+  const double mean = sum / n;
+  if (n == 1 || resamples < 1) return {mean, mean, mean};
+  std::vector<double> means(resamples);
+  for (double& m : means) {
+    double s = 0;
+    for (size_t i = 0; i < n; ++i) s += values[std::min(n - 1, size_t(random.Uniform() * n))];
+    m = s / n;
+  }
+  std::sort(means.begin(), means.end());
+  const double alpha = 1 - confidence;
+  const size_t lo = static_cast<size_t>(std::floor(alpha / 2 * resamples));
+  const size_t hi = static_cast<size_t>(std::ceil((1 - alpha / 2) * resamples)) - 1;
+  return {mean, means[std::min(lo, means.size() - 1)], means[std::min(hi, means.size() - 1)]};
+}
+
+}  // namespace locind::metrics

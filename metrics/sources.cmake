@@ -1,0 +1,6 @@
+list(APPEND LOCIND_CORE_SOURCES
+  metrics/cell_summary.cc
+  metrics/intervals.cc
+  metrics/replicate_score.cc
+  metrics/truth_class.cc
+)

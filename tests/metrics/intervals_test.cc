@@ -1,0 +1,67 @@
+#include "metrics/intervals.h"
+
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+namespace locind::metrics {
+namespace {
+
+TEST_CASE("Wilson intervals match SciPy") {
+  // Reference values: SciPy 1.10.1,
+  // scipy.stats.binomtest(k, n).proportion_ci(confidence_level=0.95, method='wilson').
+  struct Row { int k, n; double low, high; };
+  const Row rows[] = {
+      {0, 10, 0.0, 0.27753279986288926},
+      {3, 10, 0.10779126740630102, 0.6032218525388546},
+      {10, 10, 0.7224672001371109, 1.0},
+      {45, 50, 0.7863976856252034, 0.9565242350681095},
+      {1, 200, 0.0008831687156009762, 0.02777370439789293},
+      {120, 300, 0.3461651905860969, 0.4563634036588123},
+  };
+  for (const Row& r : rows) {
+    const Interval i = WilsonInterval(r.k, r.n);
+    CHECK(i.estimate == doctest::Approx(double(r.k) / r.n));
+    CHECK(i.low == doctest::Approx(r.low).epsilon(1e-9));
+    CHECK(i.high == doctest::Approx(r.high).epsilon(1e-9));
+  }
+  // Same source, confidence_level=0.99.
+  const Interval i99 = WilsonInterval(7, 20, 0.99);
+  CHECK(i99.low == doctest::Approx(0.14639344137693885).epsilon(1e-9));
+  CHECK(i99.high == doctest::Approx(0.6283381789526872).epsilon(1e-9));
+}
+
+TEST_CASE("no trials gives an undefined interval") {
+  const Interval i = WilsonInterval(0, 0);
+  CHECK(std::isnan(i.estimate));
+  CHECK(std::isnan(i.low));
+}
+
+TEST_CASE("bootstrap interval of a mean") {
+  graph::RandomStream random(3);
+  // A constant sample has a zero-width interval.
+  const Interval constant = BootstrapMeanInterval({2.5, 2.5, 2.5, 2.5}, 500, random);
+  CHECK(constant.estimate == 2.5);
+  CHECK(constant.low == 2.5);
+  CHECK(constant.high == 2.5);
+  // For the mean of a large sample the percentile interval is close to the
+  // normal-theory interval mean +- 1.96 s / sqrt(n) (Efron & Tibshirani 1993,
+  // An Introduction to the Bootstrap, ch. 13). Values 0..399: mean 199.5,
+  // s = 115.61 (population sd 115.47), half-width 11.33.
+  std::vector<double> values;
+  for (int i = 0; i < 400; ++i) values.push_back(i);
+  const Interval wide = BootstrapMeanInterval(values, 4000, random);
+  CHECK(wide.estimate == doctest::Approx(199.5));
+  CHECK((wide.high - wide.low) / 2 == doctest::Approx(11.33).epsilon(0.1));
+  CHECK(wide.low < 199.5);
+  CHECK(wide.high > 199.5);
+  // Same stream key, same interval.
+  graph::RandomStream again(3);
+  BootstrapMeanInterval({2.5, 2.5, 2.5, 2.5}, 500, again);
+  const Interval repeat = BootstrapMeanInterval(values, 4000, again);
+  CHECK(repeat.low == wide.low);
+  CHECK(repeat.high == wide.high);
+}
+
+}  // namespace
+}  // namespace locind::metrics

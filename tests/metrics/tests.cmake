@@ -1,0 +1,2 @@
+locind_test(tests/metrics/intervals_test.cc)
+locind_test(tests/metrics/replicate_score_test.cc)
