@@ -25,5 +25,8 @@ int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std
 int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 }  // namespace locind::app

@@ -18,6 +18,9 @@ const Command kCommands[] = {
      locind::app::RunSimulateCommand},
     {"learn", "run a learning method on data or on the oracle of a graph", locind::app::RunLearnCommand},
     {"test", "one local-independence test on a data file", locind::app::RunTestCommand},
+    {"run", "run a study file: simulate, learn, score; resumable, --part K/N shares", locind::app::RunRunCommand},
+    {"merge", "join the result folders of --part shares into one", locind::app::RunMergeCommand},
+    {"plan", "smallest observation length reaching a target power and false-edge rate", locind::app::RunPlanCommand},
 };
 
 void PrintUsage(std::ostream& out) {

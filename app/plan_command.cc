@@ -1,0 +1,72 @@
+// locind plan: the observation length each learner needs.
+//
+//   plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N]
+//
+// For every learner of the study, the smallest observation length at which
+// the pooled power reaches --power and the false-edge rate stays at or below
+// --false-edges, found by the adaptive search of app/study_planner.h, with
+// the range the replicate uncertainty allows, or a plain statement when no
+// length up to the cap (plan.cap in the study) reaches the targets. One line
+// per evaluated length goes to stderr as the search proceeds.
+#include <boost/program_options.hpp>
+
+#include "app/command.h"
+#include "app/study_file.h"
+#include "app/study_planner.h"
+
+namespace locind::app {
+namespace {
+
+namespace po = boost::program_options;
+
+struct UsageError {
+  std::string message;
+};
+
+int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  std::string path;
+  PlanTargets targets;
+  int threads = 1;
+  po::options_description d("locind plan");
+  d.add_options()("study", po::value(&path), "study file")("power", po::value(&targets.power), "target power")(
+      "false-edges", po::value(&targets.false_edges), "largest false-edge rate")(
+      "threads", po::value(&threads), "worker threads");
+  po::positional_options_description positional;
+  positional.add("study", 1);
+  po::variables_map vm;
+  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
+  po::notify(vm);
+  if (path.empty()) throw UsageError{"usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N]"};
+  if (!(targets.power > 0 && targets.power <= 1)) throw UsageError{"--power must lie in (0, 1]"};
+  if (!(targets.false_edges >= 0 && targets.false_edges < 1)) throw UsageError{"--false-edges must lie in [0, 1)"};
+  if (threads < 1 || threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
+  StudyOrErrors read = ReadStudyFile(path);
+  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
+    for (const InputError& e : *errors) err << e.ToString() << "\n";
+    return kExitInputError;
+  }
+  const StudySpec& study = std::get<StudySpec>(read);
+  const std::vector<LearnerPlan> plans =
+      PlanLengths(study, targets, threads, [&err](const std::string& line) { err << line << "\n" << std::flush; });
+  out << PlanReport(plans, targets);
+  return kExitOk;
+}
+
+}  // namespace
+
+int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  try {
+    return Plan(args, out, err);
+  } catch (const UsageError& e) {
+    err << "locind plan: " << e.message << "\n";
+    return kExitInputError;
+  } catch (const po::error& e) {
+    err << "locind plan: " << e.what() << "\n";
+    return kExitInputError;
+  } catch (const std::exception& e) {
+    err << "locind plan: " << e.what() << "\n";
+    return kExitFailure;
+  }
+}
+
+}  // namespace locind::app

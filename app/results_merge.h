@@ -1,0 +1,26 @@
+// Reading back the result folder of a --part share, for `locind merge`.
+#pragma once
+
+#include <map>
+#include <string>
+
+#include "app/results_rows.h"
+#include "app/study_grid.h"
+#include "graph/status.h"
+
+namespace locind::app {
+
+struct PartFolder {
+  std::string dir;
+  Part part;
+  std::string study_path;  // DIR/input/<study file>
+  std::string study_text;
+  std::map<Unit, UnitResult> units;  // from replicates.csv and edges.csv
+};
+
+// Reads part.txt, input/<study file>, replicates.csv and edges.csv of a
+// finished share. Fails (naming the file and line) when one is missing or
+// malformed.
+Result<PartFolder> ReadPartFolder(const std::string& dir);
+
+}  // namespace locind::app

@@ -1,0 +1,146 @@
+// locind run: run a study.
+//
+//   run STUDY.yaml [--threads N] [--out DIR] [--part K/N]
+//
+// Validates the study (every problem on stderr as FILE:LINE:COLUMN: FIELD:
+// message, exit 2, nothing written), draws the truths and computes their
+// classes, then runs the units of the part that are not yet in DIR's journal
+// (app/runner_journal.h) on N threads, and finally writes the result files
+// (app/results_writer.h) and prints the summary table. DIR defaults to
+// results/<study name>.
+#include <boost/program_options.hpp>
+#include <cstdio>
+#include <fstream>
+#include <iostream>
+#include <sstream>
+
+#include "app/command.h"
+#include "app/progress.h"
+#include "app/results_table.h"
+#include "app/results_writer.h"
+#include "app/runner.h"
+#include "app/runner_journal.h"
+#include "app/study_file.h"
+
+namespace locind::app {
+namespace {
+
+namespace po = boost::program_options;
+
+struct UsageError {
+  std::string message;
+};
+
+struct RunOptions {
+  std::string study;
+  std::string out;
+  int threads = 1;
+  Part part;
+};
+
+RunOptions ParseOptions(const std::vector<std::string>& args) {
+  RunOptions o;
+  std::string part = "1/1";
+  po::options_description d("locind run");
+  d.add_options()("study", po::value(&o.study), "study file")(
+      "threads", po::value(&o.threads), "worker threads")("out", po::value(&o.out), "output folder")(
+      "part", po::value(&part), "run share K of N");
+  po::positional_options_description positional;
+  positional.add("study", 1);
+  po::variables_map vm;
+  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
+  po::notify(vm);
+  if (o.study.empty()) throw UsageError{"usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N]"};
+  if (o.threads < 1 || o.threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
+  const std::optional<Part> p = ParsePart(part);
+  if (!p) throw UsageError{"--part expects K/N with 1 <= K <= N, e.g. 2/8"};
+  o.part = *p;
+  return o;
+}
+
+std::string ReadText(const std::string& path) {
+  std::ifstream in(path);
+  std::ostringstream text;
+  text << in.rdbuf();
+  return text.str();
+}
+
+std::string Hex(uint64_t v) {
+  char buffer[17];
+  std::snprintf(buffer, sizeof buffer, "%016llx", static_cast<unsigned long long>(v));
+  return buffer;
+}
+
+int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  const RunOptions o = ParseOptions(args);
+  StudyOrErrors read = ReadStudyFile(o.study);
+  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
+    for (const InputError& e : *errors) err << e.ToString() << "\n";
+    return kExitInputError;
+  }
+  const StudySpec& study = std::get<StudySpec>(read);
+  const std::vector<Cell> cells = ExpandGrid(study);
+  const StudyTruths truths(study, cells);
+  const std::string dir = o.out.empty() ? "results/" + study.name : o.out;
+  const std::string identity =
+      Hex(HashText(StudyJson(study, cells, truths))) + " part " + o.part.Text();
+  Result<std::unique_ptr<Journal>> journal = Journal::Open(dir, identity);
+  if (!journal.ok()) {
+    err << "locind run: " << journal.status().message() << "\n";
+    return kExitFailure;
+  }
+  Journal& j = *journal.value();
+  const std::vector<Unit> mine = UnitsOf(cells, study.grid.replicates, o.part);
+  std::vector<Unit> pending;
+  for (const Unit& u : mine) {
+    if (!j.finished().count(u)) pending.push_back(u);
+  }
+  err << "locind run: " << study.name << ", " << cells.size() << " cells x " << study.grid.replicates
+      << " replicates x " << study.learners.size() << " learners";
+  if (o.part.parts > 1) err << ", part " << o.part.Text();
+  err << "; " << mine.size() - pending.size() << " of " << mine.size() << " units already done\n";
+  Progress progress(err, StderrIsTerminal() && &err == &std::cerr, static_cast<int64_t>(mine.size()),
+                    static_cast<int64_t>(mine.size() - pending.size()), "units");
+  Status appended;
+  RunUnits(study, cells, truths, pending, o.threads,
+           [&](UnitResult r) {
+             Status s = j.Append(std::move(r));
+             if (!s.ok() && appended.ok()) appended = s;
+           },
+           &progress);
+  progress.Finish();
+  if (!appended.ok()) {
+    err << "locind run: " << appended.message() << "\n";
+    return kExitFailure;
+  }
+  std::map<Unit, UnitResult> finished;
+  for (const Unit& u : mine) finished.emplace(u, j.finished().at(u));
+  const Status written = WriteResults(dir, study, ReadText(o.study), cells, truths, finished, o.part);
+  if (!written.ok()) {
+    err << "locind run: " << written.message() << "\n";
+    return kExitFailure;
+  }
+  out << "results in " << dir << "/ (replicates.csv, edges.csv, summary.csv, study.json, drawings)\n";
+  if (o.part.parts > 1) out << "this is part " << o.part.Text() << "; join the parts with locind merge\n";
+  out << SummaryTable(study, cells, finished);
+  return kExitOk;
+}
+
+}  // namespace
+
+int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  try {
+    return Run(args, out, err);
+  } catch (const UsageError& e) {
+    err << "locind run: " << e.message << "\n";
+    return kExitInputError;
+  } catch (const po::error& e) {
+    err << "locind run: " << e.what() << "\n";
+    return kExitInputError;
+  } catch (const std::exception& e) {
+    err << "locind run: " << e.what() << "\n";
+    return kExitFailure;
+  }
+}
+
+}  // namespace locind::app

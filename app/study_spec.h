@@ -1,0 +1,100 @@
+// StudySpec: a study file after reading and validation, every default filled
+// in (the vocabulary is documented in configs/README.md).
+//
+// A study fixes the truths (one explicit graph, or a random family from which
+// `truths` distinct graphs are drawn), the process model run on them (Hawkes
+// event streams or diffusion paths, parameters fixed or drawn per truth from
+// ranges and optionally rescaled to a stationarity target), the grid of
+// conditions (observation lengths and other factors), the replicates per cell
+// and the learners (method + independence test, or the oracle).
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "graph/truth_graph.h"
+
+namespace locind::app {
+
+// A number fixed for every truth, or drawn uniformly from [low, high] per
+// truth (and per edge or node where it is a per-edge or per-node value).
+struct ValueRange {
+  double low = 0;
+  double high = 0;
+  bool IsFixed() const { return low == high; }
+};
+
+struct TruthSpec {
+  bool random = false;
+  graph::TruthGraph explicit_graph;       // when !random
+  graph::RandomGraphOptions random_graph;  // when random
+  int truths = 1;                          // distinct truths drawn (parameters, and graphs when random)
+};
+
+// Hawkes process with exponential kernels w * decay * exp(-decay t).
+struct EventProcessSpec {
+  ValueRange baseline{0.2, 0.2};
+  ValueRange weight{0.3, 0.3};       // edges a -> b, a != b
+  ValueRange loop_weight{0.3, 0.3};  // loops a -> a
+  ValueRange decay{1, 1};
+  // When set, K is multiplied by a constant so its spectral radius equals
+  // this value (0 < value < 1).
+  std::optional<double> spectral_radius;
+  double burn_in = 50;
+  int64_t event_cap = 5'000'000;
+};
+
+// Linear or tanh diffusion; observed on a regular grid.
+struct PathProcessSpec {
+  bool tanh = false;
+  ValueRange self_rate{1, 1};  // M_bb = -self_rate on loops b -> b
+  ValueRange coupling{0.5, 0.5};
+  double noise = 1;
+  double step = 0.01;
+  double interval = 0.1;
+  double burn_in = 10;
+  bool exact = false;  // exact Gaussian transition (linear drift only)
+  // When set (< 0), M is multiplied by a positive constant so the largest real
+  // part of its eigenvalues equals this value (linear drift only).
+  std::optional<double> drift_bound;
+};
+
+struct LearnerSpec {
+  std::string label;   // unique; "method/test" unless named in the file
+  std::string method;  // registry name
+  std::string test;    // oracle, hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed, drift-f, drift-robust-wald, none
+  int screening_size = 1;
+  double penalty = -1;
+};
+
+struct GridSpec {
+  std::vector<double> lengths;
+  std::vector<double> levels{0.05};
+  std::vector<int> hidden_counts;        // random truths only; empty: the truth's own
+  std::vector<double> stationarity;      // spectral radius or drift bound targets; empty: the process's own
+  int replicates = 10;
+};
+
+// Settings for `locind plan`.
+struct PlanSpec {
+  double start = 0;  // first length tried; 0: the smallest grid length
+  double cap = 0;    // largest length tried; 0: 64 times the largest grid length
+  int bisection_steps = 4;
+};
+
+struct StudySpec {
+  std::string file;  // path it was read from
+  std::string name;
+  uint64_t seed = 1;
+  TruthSpec truth;
+  bool events = true;  // events (Hawkes) or paths (diffusion)
+  EventProcessSpec event_process;
+  PathProcessSpec path_process;
+  GridSpec grid;
+  std::vector<LearnerSpec> learners;
+  PlanSpec plan;
+};
+
+}  // namespace locind::app
