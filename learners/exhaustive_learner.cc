@@ -26,6 +26,8 @@ class TableAnswers : public SeparationAnswers {
   }
   Mask Possible(int, Mask) override { return graph::AllNodes(runner_.processes()); }
   Mask KnownAncestors(Mask given) override { return given; }
+  Mask PossibleAncestors(Mask) override { return graph::AllNodes(size()); }
+  Mask Certain(int c, Mask given) override { return Connected(c, given, graph::AllNodes(size())); }
 
  private:
   const TestRunner& runner_;

@@ -9,7 +9,8 @@
 //
 //   a -> b in N  iff  (D1) conn(a, b | C) for every C not containing a;
 //                     (D2) for every C containing neither a nor b and every d
-//                          in C + {a, b}: conn(a, d | C) implies conn(b, d | C);
+//                          in C + {a, b}: conn(a, d | C) implies conn(b, d | C)
+//                          (C inside An(b) is enough);
 //                     (D3) for every C with b in C and a not in C, every
 //                          g outside C + {a} and every d:
 //                          conn(g, d | C + {a}) implies conn(g, d | C).
@@ -24,7 +25,8 @@
 // the separations of N. (D2): in N + (a -> b) the walk b <- a ~> d is
 // mu-connecting whenever a ~> d is (a becomes a non-collider outside C).
 // (D3): adding a -> b with b in C puts a and its ancestors into An(C), so
-// every walk open given C + {a} is open given C. (B2): in N + (a <-> b), a
+// every walk open given C + {a} is open given C (only g and d with
+// conn(g, a | C) and conn(a, d | C) need checking; see the .cc). (B2): in N + (a <-> b), a
 // walk g ~> a continues through the collider a (in C) to b. They follow the
 // potential-parent and potential-sibling conditions of Mogensen, Malinsky &
 // Hansen (2018, UAI, Sec. 4), in our own formulation; DESIGN.md F6 (i) and
@@ -52,6 +54,10 @@ class SeparationAnswers {
   // A superset of the d with conn(c, d | given), known without asking
   // anything (every node when nothing is known). REQUIRES: c not in given.
   virtual graph::Mask Possible(int c, graph::Mask given) = 0;
+  // A subset of the d with conn(c, d | given), known without asking.
+  virtual graph::Mask Certain(int c, graph::Mask given) = 0;
+  // A superset of An(given) known without asking (every node when unknown).
+  virtual graph::Mask PossibleAncestors(graph::Mask given) = 0;
   // A subset of An(given) known without asking (at least `given` itself).
   virtual graph::Mask KnownAncestors(graph::Mask given) = 0;
 };

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <bit>
 #include <tuple>
+#include <cstdlib>
 
 #include "graph/mu_separation.h"
 #include "graph/separation_model.h"
@@ -182,6 +183,17 @@ class ImpliedAnswers : public SeparationAnswers {
   }
   Mask Possible(int c, Mask given) override { return graph::ConnectedFrom(s_.upper, c, given); }
   Mask KnownAncestors(Mask given) override { return graph::Ancestors(s_.lower, given); }
+  Mask PossibleAncestors(Mask given) override { return graph::Ancestors(s_.upper, given); }
+  Mask Certain(int c, Mask given) override {
+    const Mask possible = graph::ConnectedFrom(s_.upper, c, given);
+    Mask known = (graph::ConnectedFrom(s_.lower, c, given) | s_.inseparable_from[c]) & possible;
+    for (int d : MaskToList(possible & ~known)) {
+      if (const bool* answer = s_.runner.Known(c, d, given); answer != nullptr && *answer) {
+        known |= Bit(d);
+      }
+    }
+    return known;
+  }
 
  private:
   State& s_;
@@ -190,7 +202,10 @@ class ImpliedAnswers : public SeparationAnswers {
 // Phase (iii).
 void FinalPhase(State& s) {
   ImpliedAnswers answers(s);
-  for (const Edge& e : graph::ListEdges(s.upper)) {
+  std::vector<Edge> order = graph::ListEdges(s.upper);
+  if (getenv("ORDER_B")) std::stable_partition(order.begin(), order.end(), [](const Edge& e) { return e.kind == EdgeKind::kBidirected; });
+  if (getenv("ORDER_R")) std::reverse(order.begin(), order.end());
+  for (const Edge& e : order) {
     if (e.is_loop()) continue;
     const bool keep = e.kind == EdgeKind::kDirected
                           ? DirectedConditionsHold(answers, e.from, e.to)
