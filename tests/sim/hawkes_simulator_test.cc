@@ -286,3 +286,32 @@ TEST_CASE("refusals: non-stationary, event cap, method mismatch, bad options") {
 
 }  // namespace
 }  // namespace locind::sim
+
+namespace locind::sim {
+namespace {
+
+// Rejections of the time-rescaling KS test at level 0.05 over many seeds.
+int RescalingRejections(const HawkesModel& m, HawkesMethod method, int seeds, double horizon) {
+  int rejected = 0;
+  for (int s = 0; s < seeds; ++s) {
+    HawkesRunOptions o;
+    o.horizon = horizon;
+    o.method = method;
+    const EventData data = Draw(m, o, 1000 + s);
+    const auto compensator = *CompensatorAtEvents(m, data);
+    rejected += test::KsAgainstUnitExponential(test::Increments(compensator[0])).p_value < 0.05;
+  }
+  return rejected;
+}
+
+TEST_CASE("time-rescaling KS rejects at its nominal rate over 60 seeds") {
+  // Under an exact simulator the KS p-value is uniform, so rejections at
+  // 0.05 over 60 seeds are Binomial(60, 0.05): P(X >= 9) = 0.0028 (SciPy
+  // binom.sf(8, 60, 0.05)). A biased
+  // simulator shows up as many more rejections.
+  CHECK(RescalingRejections(CycleModel(), HawkesMethod::kThinning, 60, 800) <= 8);
+  CHECK(RescalingRejections(MixedModel(), HawkesMethod::kCluster, 60, 800) <= 8);
+}
+
+}  // namespace
+}  // namespace locind::sim
