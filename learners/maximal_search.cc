@@ -3,7 +3,6 @@
 #include <algorithm>
 #include <bit>
 #include <tuple>
-#include <cstdlib>
 
 #include "graph/mu_separation.h"
 #include "graph/separation_model.h"
@@ -202,10 +201,7 @@ class ImpliedAnswers : public SeparationAnswers {
 // Phase (iii).
 void FinalPhase(State& s) {
   ImpliedAnswers answers(s);
-  std::vector<Edge> order = graph::ListEdges(s.upper);
-  if (getenv("ORDER_B")) std::stable_partition(order.begin(), order.end(), [](const Edge& e) { return e.kind == EdgeKind::kBidirected; });
-  if (getenv("ORDER_R")) std::reverse(order.begin(), order.end());
-  for (const Edge& e : order) {
+  for (const Edge& e : graph::ListEdges(s.upper)) {
     if (e.is_loop()) continue;
     const bool keep = e.kind == EdgeKind::kDirected
                           ? DirectedConditionsHold(answers, e.from, e.to)
