@@ -474,7 +474,7 @@ class StudyParser {
             "with an explicit graph and fixed parameters every truth would be the same; give ranges or truths: 1");
     }
     if (!s.events && s.truth.random && s.truth.random_graph.loops != graph::LoopPolicy::kAll) {
-      Error(truth["random"], "truth.random.loops",
+      Error(NodeOr(truth["random"], "loops"), "truth.random.loops",
             "diffusion truths need a loop on every node (loops: all): the loop carries the mean reversion");
     }
   }

@@ -17,6 +17,10 @@
 namespace locind::app {
 namespace {
 
+// Rates are compared with a little slack: a Wilson bound of 0 successes can
+// come out as 1e-17 instead of 0.
+constexpr double kSlack = 1e-12;
+
 // Lengths are kept to 3 significant digits so bisection ends on readable values.
 double Round3(double x) {
   if (x <= 0) return x;
@@ -96,15 +100,15 @@ class LengthSearch {
     for (const PlanStep& s : plan.steps) {
       const metrics::CellSummary& m = s.summary;
       const bool none_reported = m.totals.reported == 0;
-      const bool allow = !std::isnan(m.power.high) && m.power.high >= targets_.power &&
-                         (none_reported || m.false_edge_rate.low <= targets_.false_edges);
+      const bool allow = !std::isnan(m.power.high) && m.power.high >= targets_.power - kSlack &&
+                         (none_reported || m.false_edge_rate.low <= targets_.false_edges + kSlack);
       if (allow && std::isnan(plan.optimistic)) plan.optimistic = s.length;
     }
     // Conservative: from this length on, every evaluated length is guaranteed.
     for (auto it = plan.steps.rbegin(); it != plan.steps.rend(); ++it) {
       const metrics::CellSummary& m = it->summary;
-      const bool sure = !std::isnan(m.power.low) && m.power.low >= targets_.power &&
-                        (m.totals.reported == 0 || m.false_edge_rate.high <= targets_.false_edges);
+      const bool sure = !std::isnan(m.power.low) && m.power.low >= targets_.power - kSlack &&
+                        (m.totals.reported == 0 || m.false_edge_rate.high <= targets_.false_edges + kSlack);
       if (!sure) break;
       plan.conservative = it->length;
     }
@@ -124,8 +128,8 @@ class LengthSearch {
 }  // namespace
 
 bool MeetsTargets(const metrics::CellSummary& s, const PlanTargets& targets) {
-  if (std::isnan(s.power.estimate) || s.power.estimate < targets.power) return false;
-  return s.totals.reported == 0 || s.false_edge_rate.estimate <= targets.false_edges;
+  if (std::isnan(s.power.estimate) || s.power.estimate < targets.power - kSlack) return false;
+  return s.totals.reported == 0 || s.false_edge_rate.estimate <= targets.false_edges + kSlack;
 }
 
 std::vector<LearnerPlan> PlanLengths(const StudySpec& study, const PlanTargets& targets, int threads,
