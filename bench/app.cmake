@@ -1,0 +1,1 @@
+locind_bench(bench/study_bench.cc)
