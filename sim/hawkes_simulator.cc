@@ -1,5 +1,6 @@
 #include "sim/hawkes_simulator.h"
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -43,15 +44,15 @@ Result<HawkesMethod> ChooseMethod(const HawkesModel& model, HawkesMethod asked) 
 }
 
 // Keeps the observed nodes and the recorded window [0, horizon).
-EventData ObservedWindow(const HawkesModel& model, const NodeTimes& all, double horizon) {
+EventData ObservedWindow(const HawkesModel& model, NodeTimes& all, double horizon) {
   EventData data;
   data.start = 0;
   data.end = horizon;
   for (int v : model.truth.Observed()) {
     data.names.push_back(model.truth.graph.name(v));
-    const std::vector<double>& t = all[v];
-    auto first = std::lower_bound(t.begin(), t.end(), 0.0);
-    data.times.emplace_back(first, t.end());
+    std::vector<double>& t = all[v];
+    t.erase(t.begin(), std::lower_bound(t.begin(), t.end(), 0.0));
+    data.times.push_back(std::move(t));
   }
   return data;
 }
@@ -78,7 +79,7 @@ Result<EventData> SimulateHawkes(const HawkesModel& model, const HawkesRunOption
                               ? SimulateByThinning(model, options, random)
                               : SimulateByClusters(model, options, random);
   if (!all.ok()) return all.status();
-  return ObservedWindow(model, *all, options.horizon);
+  return ObservedWindow(model, all.value(), options.horizon);
 }
 
 const char* HawkesMethodName(HawkesMethod method) {
