@@ -61,6 +61,25 @@ std::vector<int> CandidatePool(const State& s, int a, int b) {
   return out;
 }
 
+// True when every node of D has a directed path to a or b in the current
+// graph with all its nodes in D + {a, b}. The set that decides
+// separability, An_N({a, b}) - {a, b} (DESIGN.md F1), has this property in
+// the maximal graph N and so in the current graph, which contains N: sets
+// without it can be skipped without losing completeness.
+bool ReachesPair(const State& s, int a, int b, Mask d) {
+  Mask reached = Bit(a) | Bit(b);
+  for (bool grew = true; grew;) {
+    grew = false;
+    for (int x : MaskToList(d & ~reached)) {
+      if ((s.upper.children[x] & reached) != 0) {
+        reached |= Bit(x);
+        grew = true;
+      }
+    }
+  }
+  return (d & ~reached) == 0;
+}
+
 // Tries every k-subset of `pool` (lexicographic in pool order) as D; true and
 // the set in `found` when one separates b from a.
 bool SearchLevel(State& s, int a, int b, const std::vector<int>& pool, int k, Mask& found) {
@@ -69,11 +88,13 @@ bool SearchLevel(State& s, int a, int b, const std::vector<int>& pool, int k, Ma
   for (int i = 0; i < k; ++i) pick[i] = i;
   const int m = static_cast<int>(pool.size());
   while (true) {
-    Mask c = base;
-    for (int i : pick) c |= Bit(pool[i]);
+    Mask d = 0;
+    for (int i : pick) d |= Bit(pool[i]);
+    const Mask c = base | d;
     // A separation of the current graph (a supergraph of the maximal graph)
     // holds in the truth too: no test needed.
-    if (graph::MuSeparated(s.upper, a, b, c) || !s.runner.Dependent(a, b, c)) {
+    if (ReachesPair(s, a, b, d) &&
+        (graph::MuSeparated(s.upper, a, b, c) || !s.runner.Dependent(a, b, c))) {
       found = c;
       return true;
     }

@@ -8,7 +8,9 @@
 //        ordered pair still joined, look for C = {b} + D (C = D for a loop)
 //        with D a k-subset of the current possible ancestors of {a, b}
 //        (An({a, b}) in the current graph, minus a and b), subsets of b's
-//        current neighbours first, as in the PC/FCI family. A separation
+//        current neighbours first, as in the PC/FCI family; sets D with a
+//        node that has no directed path to {a, b} inside D + {a, b} are
+//        skipped (the deciding set never has one). A separation
 //        removes a -> b and a <-> b and is remembered. Complete under the
 //        oracle: the current graph always contains the maximal graph N, so
 //        An_N({a, b}) - {a} is among the sets tried, and it separates every
