@@ -35,7 +35,7 @@ uint64_t HashList(const std::vector<int>& list) {
 }  // namespace
 
 // The data of one fit: event design Z = [1, x(t_i)] and either the exact
-// integrals J (linear) or the grid design U with weights (softplus).
+// integrals J, and for the softplus link the grid design U with weights.
 struct HawkesLrTest::Design {
   Eigen::MatrixXd z;
   Eigen::VectorXd integrals;
@@ -63,14 +63,12 @@ HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int
   for (size_t c = 0; c < covariates.size(); ++c) {
     d.z.middleCols(1 + Eigen::Index(c) * k_count, k_count) = features_->AtEvents(target, covariates[c]);
   }
-  if (options_.link == HawkesLink::kLinear) {
-    d.integrals.resize(p);
-    d.integrals[0] = data.duration();
-    for (size_t c = 0; c < covariates.size(); ++c) {
-      d.integrals.segment(1 + Eigen::Index(c) * k_count, k_count) = features_->Integrals(covariates[c]);
-    }
-    return d;
+  d.integrals.resize(p);
+  d.integrals[0] = data.duration();
+  for (size_t c = 0; c < covariates.size(); ++c) {
+    d.integrals.segment(1 + Eigen::Index(c) * k_count, k_count) = features_->Integrals(covariates[c]);
   }
+  if (options_.link == HawkesLink::kLinear) return d;
   const HawkesFeatures::Grid& grid = features_->QuadratureGrid();
   d.grid.resize(static_cast<Eigen::Index>(grid.times.size()), p);
   d.grid.col(0).setOnes();
@@ -78,7 +76,7 @@ HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int
     d.grid.middleCols(1 + Eigen::Index(c) * k_count, k_count) = features_->AtGrid(covariates[c]);
   }
   d.grid_weights = grid.weights;
-  d.scale = std::max<double>(double(n), 1.0) / data.duration() / 10;
+  d.scale = std::max<double>(double(n), 1.0) / data.duration() / 100;
   return d;
 }
 
@@ -112,16 +110,26 @@ SoftplusPoint SoftplusAt(double u) {
   return {std::max(u, 0.0) + std::log1p(e), u >= 0 ? inv : e * inv, e * inv * inv};
 }
 
-ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::MatrixXd& grid,
-                                   const Eigen::VectorXd& w, double s) {
+// The compensator splits as int s sp(eta/s) dt = int eta dt + int s sp(-eta/s) dt
+// (sp(u) = u + sp(-u)): the first part is J'x in closed form, the second is
+// a small correction, non-zero only where eta is within a few s of zero, and
+// taken by quadrature over the grid nodes with u = eta/s < kSkip (beyond, it
+// is below e^-kSkip relative and dropped).
+constexpr double kSkip = 40;
+
+ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::VectorXd& integrals,
+                                   const Eigen::MatrixXd& grid, const Eigen::VectorXd& w, double s) {
   ConcaveObjective f;
   f.value = [&, s](const Eigen::VectorXd& x) {
     const Eigen::VectorXd eta = z * x, eta_grid = grid * x;
-    double value = double(eta.size()) * std::log(s);
+    double value = double(eta.size()) * std::log(s) - integrals.dot(x);
     for (Eigen::Index i = 0; i < eta.size(); ++i) value += LogSoftplus(eta[i] / s);
-    double integral = 0;
-    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) integral += w[q] * Softplus(eta_grid[q] / s);
-    value -= s * integral;
+    double correction = 0;
+    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) {
+      const double u = eta_grid[q] / s;
+      if (u < kSkip) correction += w[q] * Softplus(-u);
+    }
+    value -= s * correction;
     return std::isfinite(value) ? value : kMinusInfinity;
   };
   f.derivatives = [&, s](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
@@ -141,16 +149,25 @@ ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::Matrix
       first[i] = ratio / s;
       weight[i] = std::max(0.0, ratio * ratio - p.sigma_slope / p.softplus) / (s * s);
     }
-    Eigen::VectorXd grid_first(eta_grid.size()), grid_weight(eta_grid.size());
-    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) {
-      const SoftplusPoint p = SoftplusAt(eta_grid[q] / s);
-      grid_first[q] = w[q] * p.sigma;
-      grid_weight[q] = w[q] * p.sigma_slope / s;
-    }
-    g = z.transpose() * first - grid.transpose() * grid_first;
+    g = z.transpose() * first - integrals;
     const Eigen::MatrixXd z_weighted = z.array().colwise() * weight.array();
-    const Eigen::MatrixXd grid_weighted = grid.array().colwise() * grid_weight.array();
-    h = -(z.transpose() * z_weighted) - grid.transpose() * grid_weighted;
+    h = -(z.transpose() * z_weighted);
+    // Correction term -s sp(-u): gradient sigma(-u) z, Hessian -sigma(-u)(1 - sigma(-u))/s z z'.
+    std::vector<Eigen::Index> near;
+    for (Eigen::Index q = 0; q < eta_grid.size(); ++q) {
+      if (eta_grid[q] / s < kSkip) near.push_back(q);
+    }
+    if (near.empty()) return;
+    Eigen::MatrixXd rows(Eigen::Index(near.size()), grid.cols());
+    Eigen::VectorXd slope(Eigen::Index(near.size()));
+    for (size_t r = 0; r < near.size(); ++r) {
+      const SoftplusPoint p = SoftplusAt(-eta_grid[near[r]] / s);
+      rows.row(Eigen::Index(r)) = grid.row(near[r]);
+      g += w[near[r]] * p.sigma * grid.row(near[r]).transpose();
+      slope[Eigen::Index(r)] = w[near[r]] * p.sigma_slope / s;
+    }
+    const Eigen::MatrixXd rows_weighted = rows.array().colwise() * slope.array();
+    h -= rows.transpose() * rows_weighted;
   };
   return f;
 }
@@ -173,7 +190,7 @@ HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
     x0[0] = d.scale * std::log(std::expm1(rate / d.scale));
     if (start) x0 = *start;
     lower.setConstant(-std::numeric_limits<double>::infinity());
-    r = MaximizeConcave(SoftplusObjective(d.z, d.grid, d.grid_weights, d.scale), x0, lower);
+    r = MaximizeConcave(SoftplusObjective(d.z, d.integrals, d.grid, d.grid_weights, d.scale), x0, lower);
   }
   return HawkesFit{r.x, r.value, r.iterations, r.converged};
 }
@@ -195,11 +212,12 @@ TestResult NotEstimable(std::string reason) {
   return r;
 }
 
-// True when the weighted Gram matrix of the grid design is numerically
-// rank deficient (eigenvalue ratio below 1e-12).
-bool GridDesignSingular(const Eigen::MatrixXd& grid, const Eigen::VectorXd& w) {
-  const Eigen::MatrixXd a = grid.array().colwise() * w.array().sqrt();
-  Eigen::MatrixXd gram = a.transpose() * a;
+// True when the Gram matrix of the event design [1, x(t_i)] is numerically
+// rank deficient (eigenvalue ratio below 1e-12 after scaling to unit
+// diagonal): the event term carries almost all the curvature of the signed
+// model, so its parameters are then not identified.
+bool EventDesignSingular(const Eigen::MatrixXd& z) {
+  Eigen::MatrixXd gram = z.transpose() * z;
   const Eigen::VectorXd scale = gram.diagonal().cwiseMax(1e-300).cwiseSqrt().cwiseInverse();
   gram = scale.asDiagonal() * gram * scale.asDiagonal();
   Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(gram, Eigen::EigenvaluesOnly);
@@ -223,8 +241,13 @@ TestResult HawkesLrTest::Compute(const TestQuery& q) {
   }
   const std::vector<int> full = Union(q.sources, q.given);
   if (options_.link == HawkesLink::kSoftplus) {
-    const Design d = BuildDesign(q.target, full);
-    if (GridDesignSingular(d.grid, d.grid_weights)) {
+    Eigen::MatrixXd z(Eigen::Index(events), 1 + Eigen::Index(full.size()) * features_->basis_size());
+    z.col(0).setOnes();
+    for (size_t c = 0; c < full.size(); ++c) {
+      z.middleCols(1 + Eigen::Index(c) * features_->basis_size(), features_->basis_size()) =
+          features_->AtEvents(q.target, full[c]);
+    }
+    if (EventDesignSingular(z)) {
       return NotEstimable("singular design: the history features are collinear");
     }
   }

@@ -7,14 +7,15 @@
 //   signed effects:    lambda_b(t) = s * log(1 + exp(eta(t) / s)) with
 //                      eta(t) = mu + sum theta_jk x_jk(t), all parameters free
 //                      (inhibition allowed). The softplus keeps the intensity
-//                      positive and is within s*log 2 of eta where eta >> s, so
-//                      it is close to the linear model away from zero; s is a
-//                      tenth of b's mean rate.
+//                      positive and is within s*log 2 of max(eta, 0), so it
+//                      is the linear model wherever eta >> s; s is a hundredth
+//                      of b's mean rate.
 // The log-likelihood of a point process with intensity lambda on [start, end)
 // is sum_i log lambda(t_i) - int lambda dt (Daley & Vere-Jones 2003, An
 // Introduction to the Theory of Point Processes I, Prop. 7.2.III); for the
-// linear model the integral is exact, for the signed one it uses the
-// features' quadrature grid. Both models are concave in the parameters and
+// linear model the integral is exact; for the signed one it is split as
+// int eta dt (exact) + int s log(1 + exp(-eta/s)) dt, the small second part
+// by the features' quadrature grid over the nodes where eta < 40 s. Both models are concave in the parameters and
 // are fitted by projected Newton (learners/projected_newton.h); the
 // restricted fit (S = C) warm-starts the full one at theta_A = 0, so
 // statistic = 2 (l_full - l_restricted) >= 0.
@@ -34,8 +35,8 @@
 //     below 1 - w_0, so rejection rates at usual levels match the level.
 //
 // Not estimable: fewer than `min_target_events` target events ("too few
-// events"), a source with no events in the window or a rank-deficient
-// signed-effects design ("singular design"), a fit that does not converge
+// events"), a source with no events in the window or, for the signed model, a
+// rank-deficient event design [1, x(t_i)] ("singular design"), a fit that does not converge
 // ("failed fit"). Results are cached by (b, A, C). Not thread-safe.
 #pragma once
 

@@ -145,6 +145,32 @@ TEST_CASE("results are cached and features shared between tests") {
   CHECK(again.status == TestStatus::kOk);
 }
 
+TEST_CASE("inhibition is found by the signed model only") {
+  // a inhibits b under the simulator's softplus link; the linear model
+  // (theta >= 0) cannot express it, the signed model can.
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 1);
+  g.AddDirected(0, 0);
+  sim::HawkesModel m = sim::ExponentialHawkes(graph::TruthGraph{g, {}}, 1.0, 0.3, 2.0);
+  m.link = sim::Link::kSoftplus;
+  for (sim::EdgeKernel& k : m.kernels) {
+    if (k.from == 0 && k.to == 1) k.kernel = sim::Kernel::Exponential(-1.5, 2.0);
+  }
+  sim::HawkesRunOptions o;
+  o.horizon = 1000;
+  o.burn_in = 50;
+  graph::RandomStream random(6);
+  auto features = Features(sim::SimulateHawkes(m, o, random).value());
+  HawkesLrTest linear(features), signed_effects(features, {.link = HawkesLink::kSoftplus});
+  const TestResult l = linear.Run({1, {0}, {1}}), s = signed_effects.Run({1, {0}, {1}});
+  REQUIRE(s.status == TestStatus::kOk);
+  CHECK(s.p_value < 1e-6);
+  CHECK(l.statistic < 1.0);
+  // The fitted effect of a on b is negative.
+  const HawkesFit fit = signed_effects.Fit(1, {0, 1});
+  CHECK(fit.parameters.segment(1, features->basis_size()).sum() < 0);
+}
+
 TEST_CASE("not estimable: too few events and a silent source") {
   sim::EventData d;
   d.names = {"a", "b", "c"};
