@@ -26,13 +26,13 @@ BitGraph SparseGraph(int n, uint64_t seed) {
 
 Mask PlainReach(const BitGraph& g, int a) {
   Mask seen = g.children[a];
-  Mask todo = seen;
-  while (todo != 0) {
-    const int v = std::countr_zero(todo);
-    todo &= todo - 1;
+  Mask frontier = seen;
+  while (frontier != 0) {
+    const int v = std::countr_zero(frontier);
+    frontier &= frontier - 1;
     const Mask fresh = g.children[v] & ~seen;
     seen |= fresh;
-    todo |= fresh;
+    frontier |= fresh;
   }
   return seen;
 }

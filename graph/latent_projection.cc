@@ -9,13 +9,13 @@ namespace {
 // hidden.
 Mask HiddenAncestors(const BitGraph& g, int x, Mask hidden) {
   Mask found = g.parents[x] & hidden;
-  Mask todo = found;
-  while (todo != 0) {
-    const int v = std::countr_zero(todo);
-    todo &= todo - 1;
+  Mask frontier = found;
+  while (frontier != 0) {
+    const int v = std::countr_zero(frontier);
+    frontier &= frontier - 1;
     const Mask fresh = g.parents[v] & hidden & ~found;
     found |= fresh;
-    todo |= fresh;
+    frontier |= fresh;
   }
   return found;
 }

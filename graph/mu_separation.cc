@@ -6,13 +6,13 @@ namespace locind::graph {
 
 Mask Ancestors(const BitGraph& g, Mask c) {
   Mask found = c;
-  Mask todo = c;
-  while (todo != 0) {
-    const int v = std::countr_zero(todo);
-    todo &= todo - 1;
+  Mask frontier = c;
+  while (frontier != 0) {
+    const int v = std::countr_zero(frontier);
+    frontier &= frontier - 1;
     const Mask fresh = g.parents[v] & ~found;
     found |= fresh;
-    todo |= fresh;
+    frontier |= fresh;
   }
   return found;
 }
@@ -20,28 +20,28 @@ Mask Ancestors(const BitGraph& g, Mask c) {
 Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
   Reach reach;
   if (Contains(c, a)) return reach;
-  Mask todo_head = 0;
-  Mask todo_tail = 0;
+  Mask frontier_head = 0;
+  Mask frontier_tail = 0;
   auto arrive = [&](Mask heads, Mask tails) {
     heads &= ~reach.head;
     tails &= ~reach.tail;
     reach.head |= heads;
     reach.tail |= tails;
-    todo_head |= heads;
-    todo_tail |= tails;
+    frontier_head |= heads;
+    frontier_tail |= tails;
   };
   // The start node is not an inner node: every edge at a may be taken.
   arrive(g.children[a] | g.siblings[a], g.parents[a]);
-  while ((todo_head | todo_tail) != 0) {
-    if (todo_tail != 0) {
+  while ((frontier_head | frontier_tail) != 0) {
+    if (frontier_tail != 0) {
       // Arrived with a tail: v is a non-collider whatever edge leaves it.
-      const int v = std::countr_zero(todo_tail);
-      todo_tail &= todo_tail - 1;
+      const int v = std::countr_zero(frontier_tail);
+      frontier_tail &= frontier_tail - 1;
       if (!Contains(c, v)) arrive(g.children[v] | g.siblings[v], g.parents[v]);
       continue;
     }
-    const int v = std::countr_zero(todo_head);
-    todo_head &= todo_head - 1;
+    const int v = std::countr_zero(frontier_head);
+    frontier_head &= frontier_head - 1;
     // Leaving along a tail makes v a non-collider; along an arrowhead, a collider.
     if (!Contains(c, v)) arrive(g.children[v], 0);
     if (Contains(ancestors_of_c, v)) arrive(g.siblings[v], g.parents[v]);

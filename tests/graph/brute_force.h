@@ -63,22 +63,22 @@ class BruteSearcher {
     };
     // seen[x][h]: some walk from a ends at x with (h == 1) an arrowhead at x.
     std::vector<std::vector<bool>> seen(n_, std::vector<bool>(2));
-    std::vector<std::pair<int, int>> todo;
+    std::vector<std::pair<int, int>> frontier;
     for (const Step& s : steps_)
       if (s.x == a && !seen[s.y][s.head_y]) {
         seen[s.y][s.head_y] = true;
-        todo.push_back({s.y, s.head_y});
+        frontier.push_back({s.y, s.head_y});
       }
-    while (!todo.empty()) {
-      auto [x, h] = todo.back();
-      todo.pop_back();
+    while (!frontier.empty()) {
+      auto [x, h] = frontier.back();
+      frontier.pop_back();
       for (const Step& s : steps_) {
         if (s.x != x) continue;
         const bool collider = h && s.head_x;
         if (collider ? !in_an_c(x) : in_c(x)) continue;
         if (!seen[s.y][s.head_y]) {
           seen[s.y][s.head_y] = true;
-          todo.push_back({s.y, s.head_y});
+          frontier.push_back({s.y, s.head_y});
         }
       }
     }
