@@ -12,7 +12,9 @@ namespace locind::app {
 namespace {
 
 std::string Range(const ValueRange& r) {
-  return r.IsFixed() ? Num(r.low) : "[" + Num(r.low) + ", " + Num(r.high) + "]";
+  if (r.IsFixed()) return Num(r.low);
+  std::string text = "[";
+  return text.append(Num(r.low)).append(", ").append(Num(r.high)).append("]");
 }
 
 std::string OptionalNumber(const std::optional<double>& v) { return v ? Num(*v) : "null"; }

@@ -82,6 +82,7 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   const std::vector<Cell> cells = ExpandGrid(study);
   const StudyTruths truths(study, cells);
   const std::string dir = o.out.empty() ? "results/" + study.name : o.out;
+  // study.json names the version, so a folder of another version is not resumed.
   const std::string identity =
       Hex(HashText(StudyJson(study, cells, truths))) + " part " + o.part.Text();
   Result<std::unique_ptr<Journal>> journal = Journal::Open(dir, identity);

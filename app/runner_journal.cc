@@ -40,11 +40,14 @@ bool WriteAll(int fd, const std::string& text) {
 }  // namespace
 
 std::string EncodeUnit(const UnitResult& u) {
-  std::string line = "unit\t" + std::to_string(u.unit.cell) + "\t" + std::to_string(u.unit.replicate) +
-                     "\t" + std::to_string(u.rows.size()) + "\t" + std::to_string(u.edge_lines.size());
-  for (const ReplicateRow& r : u.rows) line += "\t" + FormatReplicateRow(r);
-  for (const std::string& e : u.edge_lines) line += "\t" + e;
-  return line + "\tend";
+  std::string line = "unit";
+  for (const size_t v : {static_cast<size_t>(u.unit.cell), static_cast<size_t>(u.unit.replicate),
+                         u.rows.size(), u.edge_lines.size()}) {
+    line.append("\t").append(std::to_string(v));
+  }
+  for (const ReplicateRow& r : u.rows) line.append("\t").append(FormatReplicateRow(r));
+  for (const std::string& e : u.edge_lines) line.append("\t").append(e);
+  return line.append("\tend");
 }
 
 std::optional<UnitResult> DecodeUnit(const std::string& line) {

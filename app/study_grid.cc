@@ -16,8 +16,9 @@ uint64_t HashText(const std::string& text) {
 uint64_t TruthKey(int hidden_factor) { return HashText("truth hidden=" + std::to_string(hidden_factor)); }
 
 std::string TruthLabel(int hidden_factor, int index) {
-  const std::string t = "t" + std::to_string(index + 1);
-  return hidden_factor < 0 ? t : "hidden" + std::to_string(hidden_factor) + "-" + t;
+  std::string label;
+  if (hidden_factor >= 0) label.append("hidden").append(std::to_string(hidden_factor)).append("-");
+  return label.append("t").append(std::to_string(index + 1));
 }
 
 Cell MakeCell(const StudySpec& study, double length, double level, int hidden_factor,

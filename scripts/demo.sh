@@ -19,3 +19,9 @@ echo "== The equivalence graph of the projection (dashed: missing from some equi
 "$bin" graph draw "$example" -o "$out/truth.svg"
 "$bin" graph draw "$example" -o "$out/equivalence_graph.svg" --class
 echo "== Results in $out/: projection.yaml, equivalence_graph.{txt,json,svg}, truth.svg"
+study=configs/demo.yaml
+study_out=results/pumping_station
+echo "== A simulation study ($study, an invented pumping station): 4 learners x 3 observation lengths"
+rm -rf "$study_out"   # a fresh run (an existing folder would be resumed)
+"$bin" run "$study" --threads 2 --out "$study_out"
+echo "== Study results in $study_out/: summary.csv (the table above), replicates.csv, edges.csv, study.json, truth and class drawings"

@@ -27,7 +27,7 @@ TEST_CASE("configs/demo.yaml: explicit truth, events, three lengths, four learne
   const StudyOrErrors read = ReadStudyFile("configs/demo.yaml");
   REQUIRE(Messages(read).empty());
   const StudySpec& s = std::get<StudySpec>(read);
-  CHECK(s.name == "demo");
+  CHECK(s.name == "pumping_station");
   CHECK(s.seed == 20261201u);
   CHECK_FALSE(s.truth.random);
   CHECK(s.truth.explicit_graph.graph.size() == 7);
