@@ -148,14 +148,104 @@ Result<double> RobustWald(const Eigen::MatrixXd& x, const LeastSquares& fit,
 
 }  // namespace
 
+const DriftTest::Moments& DriftTest::SharedMoments() {
+  if (moments_) return *moments_;
+  const int processes = data_.processes();
+  std::vector<int> all(static_cast<size_t>(processes));
+  for (int j = 0; j < processes; ++j) all[size_t(j)] = j;
+  const Eigen::Index n = data_.samples() - 1;
+  const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
+  const Eigen::Index cols = 1 + processes * width;
+  Moments m{Eigen::MatrixXd::Zero(cols, cols), Eigen::MatrixXd::Zero(cols, processes),
+            Eigen::VectorXd::Zero(processes)};
+  for (int j = 0; j < processes; ++j) Columns(j);
+  // Row chunks keep the temporary design small whatever the sample count.
+  constexpr Eigen::Index kChunk = 4096;
+  for (Eigen::Index r0 = 0; r0 < n; r0 += kChunk) {
+    const Eigen::Index rows = std::min(kChunk, n - r0);
+    Eigen::MatrixXd w(rows, cols);
+    Eigen::MatrixXd y(rows, processes);
+    for (Eigen::Index i = 0; i < rows; ++i) {
+      const double dt = data_.time[r0 + i + 1] - data_.time[r0 + i];
+      const double root = std::sqrt(dt);
+      w(i, 0) = root;
+      for (int j = 0; j < processes; ++j) {
+        w.row(i).segment(1 + j * width, width) = root * columns_.at(j).row(r0 + i);
+        y(i, j) = (data_.values(r0 + i + 1, j) - data_.values(r0 + i, j)) / root;
+      }
+    }
+    m.gram.selfadjointView<Eigen::Lower>().rankUpdate(w.transpose());
+    m.cross.noalias() += w.transpose() * y;
+    m.response2 += y.colwise().squaredNorm().transpose();
+  }
+  m.gram = m.gram.selfadjointView<Eigen::Lower>();
+  moments_ = std::move(m);
+  return *moments_;
+}
+
+namespace {
+
+// Columns of `processes` in the shared layout (intercept first).
+std::vector<int> SharedColumns(const std::vector<int>& processes, int width) {
+  std::vector<int> cols = {0};
+  for (int j : processes) {
+    for (int k = 0; k < width; ++k) cols.push_back(1 + j * width + k);
+  }
+  return cols;
+}
+
+// RSS of the regression on `cols`, from the moments; nullopt when the
+// unit-diagonal sub-Gram matrix is numerically singular.
+std::optional<double> ResidualSumOfSquares(const Eigen::MatrixXd& gram, const Eigen::VectorXd& cross,
+                                           double response2, const std::vector<int>& cols) {
+  const Eigen::Index p = Eigen::Index(cols.size());
+  Eigen::MatrixXd g(p, p);
+  Eigen::VectorXd c(p);
+  for (Eigen::Index i = 0; i < p; ++i) {
+    c[i] = cross[cols[i]];
+    for (Eigen::Index j = 0; j < p; ++j) g(i, j) = gram(cols[i], cols[j]);
+  }
+  const Eigen::VectorXd scale = g.diagonal().cwiseMax(1e-300).cwiseSqrt().cwiseInverse();
+  g = scale.asDiagonal() * g * scale.asDiagonal();
+  c = scale.asDiagonal() * c;
+  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(g);
+  const Eigen::VectorXd& values = eig.eigenvalues();
+  if (values.minCoeff() <= 1e-12 * values.maxCoeff()) return std::nullopt;
+  const Eigen::VectorXd projected = eig.eigenvectors().transpose() * c;
+  return response2 - projected.cwiseAbs2().cwiseQuotient(values).sum();
+}
+
+}  // namespace
+
+TestResult DriftTest::FTest(const TestQuery& q, const std::vector<int>& full) {
+  const Moments& m = SharedMoments();
+  const int width = 1 + int(options_.rates.size());
+  const std::vector<int> full_cols = SharedColumns(full, width);
+  const std::vector<int> kept_cols = SharedColumns(q.given, width);
+  const double yy = m.response2[q.target];
+  const std::optional<double> rss_full = ResidualSumOfSquares(m.gram, m.cross.col(q.target), yy, full_cols);
+  if (!rss_full) return NotEstimable("singular design: the history features are collinear");
+  if (!(*rss_full > 1e-12 * yy)) return NotEstimable("perfect fit: zero residuals");
+  const std::optional<double> rss_kept = ResidualSumOfSquares(m.gram, m.cross.col(q.target), yy, kept_cols);
+  if (!rss_kept) return NotEstimable("singular design: the history features are collinear");
+  TestResult r;
+  r.df = double(full_cols.size() - kept_cols.size());
+  const double df2 = double(data_.samples() - 1) - double(full_cols.size());
+  r.statistic = std::max(0.0, (*rss_kept - *rss_full) / r.df / (*rss_full / df2));
+  r.p_value = FSurvival(r.df, df2, r.statistic);
+  return r;
+}
+
 TestResult DriftTest::Compute(const TestQuery& q) {
   const std::vector<int> full = Union(q.sources, q.given);
-  const Eigen::MatrixXd x = Design(full);
-  const Eigen::Index n = x.rows(), p = x.cols();
+  const Eigen::Index n = data_.samples() - 1;
+  const Eigen::Index p = 1 + Eigen::Index(full.size()) * (1 + Eigen::Index(options_.rates.size()));
   if (n < p + 10) {
     return NotEstimable("too few samples: " + std::to_string(n) + " increments for " +
                         std::to_string(p) + " coefficients");
   }
+  if (options_.statistic == DriftStatistic::kF) return FTest(q, full);
+  const Eigen::MatrixXd x = Design(full);
   const Eigen::VectorXd y = Response(q.target);
   const LeastSquares full_fit = FitLeastSquares(x, y);
   if (full_fit.rank < p) {
@@ -165,28 +255,17 @@ TestResult DriftTest::Compute(const TestQuery& q) {
   if (!(full_fit.rss > 0)) return NotEstimable("perfect fit: zero residuals");
   // Columns of the tested (A) coefficients in the full design.
   const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
-  std::vector<int> tested, kept = {0};
+  std::vector<int> tested;
   for (size_t c = 0; c < full.size(); ++c) {
-    const bool is_source = std::binary_search(q.sources.begin(), q.sources.end(), full[c]);
-    for (Eigen::Index k = 0; k < width; ++k) {
-      (is_source ? tested : kept).push_back(int(1 + Eigen::Index(c) * width + k));
-    }
+    if (!std::binary_search(q.sources.begin(), q.sources.end(), full[c])) continue;
+    for (Eigen::Index k = 0; k < width; ++k) tested.push_back(int(1 + Eigen::Index(c) * width + k));
   }
   TestResult r;
   r.df = double(tested.size());
-  if (options_.statistic == DriftStatistic::kRobustWald) {
-    Result<double> w = RobustWald(x, full_fit, tested);
-    if (!w.ok()) return NotEstimable(w.status().message());
-    r.statistic = *w;
-    r.p_value = ChiSquaredSurvival(r.df, r.statistic);
-    return r;
-  }
-  Eigen::MatrixXd xr(n, Eigen::Index(kept.size()));
-  for (size_t i = 0; i < kept.size(); ++i) xr.col(Eigen::Index(i)) = x.col(kept[i]);
-  const LeastSquares restricted = FitLeastSquares(xr, y);
-  const double df2 = double(n - p);
-  r.statistic = std::max(0.0, (restricted.rss - full_fit.rss) / r.df / (full_fit.rss / df2));
-  r.p_value = FSurvival(r.df, df2, r.statistic);
+  Result<double> w = RobustWald(x, full_fit, tested);
+  if (!w.ok()) return NotEstimable(w.status().message());
+  r.statistic = *w;
+  r.p_value = ChiSquaredSurvival(r.df, r.statistic);
   return r;
 }
 

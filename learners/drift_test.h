@@ -26,12 +26,17 @@
 // rates 1/(10 dt) and 1/(100 dt) (time constants of 10 and 100 samples).
 //
 // Not estimable: fewer than p + 10 increments ("too few samples"), a
-// rank-deficient design ("singular design"), zero residuals ("perfect fit").
-// Filtered columns are computed once per process and shared by all queries;
-// results are cached by (b, A, C). Not thread-safe.
+// rank-deficient design ("singular design": for the F test, an eigenvalue of
+// the unit-diagonal Gram matrix below 1e-12 of the largest; for the Wald
+// test, QR rank at threshold 1e-10), zero residuals ("perfect fit").
+// Filtered columns are computed once per process, and for the F test the
+// cross-products of all columns and responses once per data set (each F test
+// then costs O(p^3), independent of the number of samples); results are
+// cached by (b, A, C). Not thread-safe.
 #pragma once
 
 #include <map>
+#include <optional>
 #include <tuple>
 
 #include <Eigen/Dense>
@@ -46,7 +51,7 @@ enum class DriftStatistic { kF, kRobustWald };
 
 struct DriftTestOptions {
   DriftStatistic statistic = DriftStatistic::kF;
-  std::vector<double> rates;  // filter rates; empty: DefaultDriftRates
+  std::vector<double> rates = {};  // filter rates; empty: DefaultDriftRates
 };
 
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count = 2);
@@ -86,12 +91,23 @@ class DriftTest : public IndependenceTest {
  private:
   DriftTest(sim::PathData data, DriftTestOptions options)
       : data_(std::move(data)), options_(std::move(options)) {}
+  // Cross-products of all columns of all processes with each other and with
+  // every response, computed once per data set: every F test is then a small
+  // solve on a sub-block (RSS = y'y - c' G^{-1} c).
+  struct Moments {
+    Eigen::MatrixXd gram;       // W'W, W = [1, columns of process 0, 1, ...], weighted
+    Eigen::MatrixXd cross;      // W'Y, one column per target
+    Eigen::VectorXd response2;  // y'y per target
+  };
   const Eigen::MatrixXd& Columns(int process);
+  const Moments& SharedMoments();
   TestResult Compute(const TestQuery& query);
+  TestResult FTest(const TestQuery& query, const std::vector<int>& full);
 
   sim::PathData data_;
   DriftTestOptions options_;
   std::map<int, Eigen::MatrixXd> columns_;  // per process: n x (1 + K), unweighted
+  std::optional<Moments> moments_;
   std::map<std::tuple<int, std::vector<int>, std::vector<int>>, TestResult> cache_;
 };
 

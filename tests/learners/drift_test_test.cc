@@ -96,6 +96,19 @@ TEST_CASE("the F statistic of one coefficient is the squared t statistic") {
   CHECK(f.statistic == doctest::Approx(wald_over_q).epsilon(1e-8));
 }
 
+TEST_CASE("the F test from shared moments equals two QR fits") {
+  sim::PathData d = Draw(0.4, 300, 6);
+  auto test = DriftTest::Create(d).value();
+  const TestResult r = test.Run({1, {0}, {1}});
+  const Eigen::MatrixXd full = test.Design({0, 1});
+  const Eigen::VectorXd y = test.Response(1);
+  Eigen::MatrixXd restricted(full.rows(), 4);
+  restricted << full.col(0), full.rightCols(3);  // intercept and b's three columns
+  const double rss_f = FitLeastSquares(full, y).rss, rss_r = FitLeastSquares(restricted, y).rss;
+  const double df2 = double(full.rows() - full.cols());
+  CHECK(r.statistic == doctest::Approx((rss_r - rss_f) / 3 / (rss_f / df2)).epsilon(1e-8));
+}
+
 TEST_CASE("a coupling is detected and its absence is not") {
   sim::PathData d = Draw(0.8, 500, 2);
   for (DriftStatistic s : {DriftStatistic::kF, DriftStatistic::kRobustWald}) {

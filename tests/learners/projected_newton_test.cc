@@ -52,7 +52,7 @@ TEST_CASE("projected Newton finds the bound-constrained maximum of quadratics") 
   Eigen::MatrixXd q(4, 4);
   q << 4, 1, 0.5, 0, 1, 3, 0.2, 0.1, 0.5, 0.2, 2, 0.3, 0, 0.1, 0.3, 1;
   const Eigen::VectorXd lower = Eigen::VectorXd::Zero(4);
-  for (const Eigen::Vector4d c : {Eigen::Vector4d(1, -2, 0.5, -0.1), Eigen::Vector4d(-1, -1, -1, -1),
+  for (const Eigen::Vector4d& c : {Eigen::Vector4d(1, -2, 0.5, -0.1), Eigen::Vector4d(-1, -1, -1, -1),
                                   Eigen::Vector4d(0.3, 0.2, 0.1, 2)}) {
     NewtonResult r = MaximizeConcave(Quadratic(q, c), Eigen::VectorXd::Ones(4), lower);
     CHECK(r.converged);
