@@ -71,8 +71,12 @@ LearnOptions ParseOptions(const std::vector<std::string>& args) {
   o.json = vm.count("json") > 0;
   o.list = vm.count("methods") > 0;
   if (o.list) return o;
-  if (o.data.empty() == o.oracle.empty()) throw UsageError{"give either DATA.csv or --oracle GRAPH.yaml"};
-  if (o.method.empty()) throw UsageError{"--method is required (locind learn --methods lists them)"};
+  if (o.data.empty() == o.oracle.empty()) {
+    throw UsageError{"give either DATA.csv or --oracle GRAPH.yaml"};
+  }
+  if (o.method.empty()) {
+    throw UsageError{"--method is required (locind learn --methods lists them)"};
+  }
   if (!(o.level > 0 && o.level < 1)) throw UsageError{"--level must lie strictly between 0 and 1"};
   if (o.screening_size < 0) throw UsageError{"--size must be at least 0"};
   return o;
@@ -108,9 +112,11 @@ void LoadEvents(const LearnOptions& o, Inputs& in) {
   } else if (test == "hawkes-lr-signed") {
     options.link = learners::HawkesLink::kSoftplus;
   } else if (test != "hawkes-lr") {
-    throw UsageError{"unknown test '" + test + "' for event data (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
+    throw UsageError{"unknown test '" + test +
+                     "' for event data (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
   }
-  auto features = learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
+  auto features =
+      learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
   if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
   in.test = std::make_unique<learners::HawkesLrTest>(
       std::make_shared<learners::HawkesFeatures>(std::move(features.value())), options);
@@ -135,10 +141,13 @@ void LoadPaths(const LearnOptions& o, Inputs& in) {
 Inputs LoadInputs(const LearnOptions& o) {
   Inputs in;
   if (!o.oracle.empty()) {
-    if (!o.test.empty() && o.test != "oracle") throw UsageError{"--oracle runs the oracle test only"};
+    if (!o.test.empty() && o.test != "oracle") {
+      throw UsageError{"--oracle runs the oracle test only"};
+    }
     GraphOrError read = ReadGraphFile(o.oracle);
     if (auto* e = std::get_if<InputError>(&read)) throw *e;
-    Result<learners::OracleTest> oracle = learners::OracleTest::FromTruth(std::get<graph::TruthGraph>(read));
+    Result<learners::OracleTest> oracle =
+        learners::OracleTest::FromTruth(std::get<graph::TruthGraph>(read));
     if (!oracle.ok()) throw InputError{o.oracle, 0, 0, "", oracle.status().message()};
     in.test = std::make_unique<learners::OracleTest>(std::move(oracle.value()));
     return in;

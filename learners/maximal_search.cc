@@ -255,7 +255,8 @@ Result<LearnResult> MaximalSearch::Learn(const LearnInput& input) {
   result.method = "maximal-search";
   SetGraphWithMarks(s.upper, input.test->names(), result);
   runner.Fill(result);
-  result.note += std::string(result.note.empty() ? "" : "; ") + "tests in the separation phase " + std::to_string(separation_tests) +
+  if (!result.note.empty()) result.note += "; ";
+  result.note += "tests in the separation phase " + std::to_string(separation_tests) +
                 ", in the final phase " + std::to_string(runner.tests() - separation_tests) +
                 "; edges removed by pruning " + std::to_string(s.pruned) + ", by the final phase " +
                 std::to_string(s.final_removed);

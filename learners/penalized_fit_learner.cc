@@ -128,7 +128,8 @@ std::vector<int> DriftParents(DriftTest& test, int b, double scale) {
   const LeastSquares ols = FitLeastSquares(x, y);
   const double dof = std::max<double>(1, double(rows - ols.rank));
   const double sigma = std::sqrt(ols.rss / dof);
-  VectorXd penalty = VectorXd::Constant(p, scale * sigma * std::sqrt(2 * rows * std::log(double(p))));
+  const double lambda = scale * sigma * std::sqrt(2 * rows * std::log(double(p)));
+  VectorXd penalty = VectorXd::Constant(p, lambda);
   penalty[0] = 0;
   const VectorXd beta = Lasso(x, y, penalty);
   std::vector<int> parents;
