@@ -19,6 +19,8 @@ namespace {
 namespace po = boost::program_options;
 
 constexpr uint64_t kDataPurpose = 1;
+constexpr char kUsage[] =
+    "usage: locind simulate MODEL.yaml --horizon T --seed S --out FILE.csv [--replicate R]";
 
 struct Options {
   std::string model;
@@ -73,6 +75,12 @@ std::string Simulate(const ModelSpec& spec, const Options& o, std::string& summa
 }  // namespace
 
 int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << kUsage << "\n  --horizon T     window length, > 0\n  --seed S        random seed\n"
+        << "  --replicate R   replicate number (default 0)\n  --out FILE.csv  output file\n"
+        << "Model files and CSV formats: configs/models/README.md\n";
+    return kExitOk;
+  }
   try {
     const Options o = ParseOptions(args);
     ModelOrError model = ReadModelFile(o.model);
@@ -90,8 +98,7 @@ int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, 
     err << "locind simulate: " << e.message << "\n";
     return kExitInputError;
   } catch (const po::error& e) {
-    err << "locind simulate: " << e.what()
-        << "\nusage: locind simulate MODEL.yaml --horizon T --seed S --out FILE.csv [--replicate R]\n";
+    err << "locind simulate: " << e.what() << "\n" << kUsage << "\n";
     return kExitInputError;
   } catch (const std::exception& e) {
     err << "locind simulate: " << e.what() << "\n";
