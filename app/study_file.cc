@@ -9,10 +9,12 @@
 #include <set>
 #include <sstream>
 
+#include <Eigen/Dense>
 #include <yaml-cpp/yaml.h>
 
 #include "app/graph_file.h"
 #include "learners/learner_registry.h"
+#include "sim/stability.h"
 
 namespace locind::app {
 namespace {
@@ -465,6 +467,7 @@ class StudyParser {
   }
 
   void CrossChecks(const YAML::Node& root, const StudySpec& s) {
+    if (errors_.empty()) CheckStationaryAtUpperEnds(root, s);
     const YAML::Node truth = root["truth"];
     if (!truth || !truth.IsMap()) return;
     const int nodes = s.truth.random ? s.truth.random_graph.nodes : s.truth.explicit_graph.graph.size();
@@ -476,6 +479,30 @@ class StudyParser {
     if (!s.events && s.truth.random && s.truth.random_graph.loops != graph::LoopPolicy::kAll) {
       Error(NodeOr(truth["random"], "loops"), "truth.random.loops",
             "diffusion truths need a loop on every node (loops: all): the loop carries the mean reversion");
+    }
+  }
+
+  // An explicit event truth without a rescaling target: with the largest
+  // weights of the ranges the process must still be stationary. The spectral
+  // radius of a non-negative matrix grows with its entries (Perron-Frobenius;
+  // Horn & Johnson 2013, Matrix Analysis, Thm. 8.1.18), so the upper ends
+  // are the worst case of every draw.
+  void CheckStationaryAtUpperEnds(const YAML::Node& root, const StudySpec& s) {
+    if (!s.events || s.truth.random || s.event_process.spectral_radius || !s.grid.stationarity.empty()) return;
+    const graph::Dmg& g = s.truth.explicit_graph.graph;
+    if (g.size() == 0) return;
+    Eigen::MatrixXd k = Eigen::MatrixXd::Zero(g.size(), g.size());
+    for (int to = 0; to < g.size(); ++to) {
+      for (int from : g.Parents(to)) {
+        k(to, from) = from == to ? s.event_process.loop_weight.high : s.event_process.weight.high;
+      }
+    }
+    const Result<double> radius = sim::SpectralRadius(k);
+    if (radius.ok() && *radius >= 1) {
+      const YAML::Node events = root["process"]["events"];
+      Error(NodeOr(events, "weight"), "process.events.weight",
+            "with the largest weights the spectral radius of K is " + Text(*radius) +
+                " >= 1 (not stationary); lower weight or loop_weight, or set spectral_radius");
     }
   }
 

@@ -131,6 +131,25 @@ TEST_CASE("missing sections, explicit-graph errors and cross-field rules") {
   }
 }
 
+TEST_CASE("an explicit event truth must be stationary at the upper ends of its weight ranges") {
+  // K has the loop a -> a (0.5) and the cycle a -> b -> a (0.7 each): its
+  // eigenvalues solve x (x - 0.5) = 0.49, largest 0.25 + sqrt(0.0625 + 0.49)
+  // = 0.993 (stationary); with weight up to 0.8 it is 0.25 + sqrt(0.7025)
+  // = 1.088 (hand computation, characteristic polynomial of a 2 x 2 matrix).
+  const std::string head = "truth: {nodes: [a, b], edges: [a -> a, a -> b, b -> a]}\n";
+  const std::string tail = "grid: {lengths: [10]}\nlearners: [{method: pairwise, test: oracle}]\n";
+  CHECK(Messages(ParseStudyText(head + "process: {events: {weight: [0.1, 0.7], loop_weight: 0.5}}\n" + tail,
+                                "ok.yaml")).empty());
+  const auto m = Messages(ParseStudyText(
+      head + "process: {events: {weight: [0.1, 0.8], loop_weight: 0.5}}\n" + tail, "hot.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0].rfind("hot.yaml:2:28: process.events.weight: with the largest weights the spectral radius of K is 1.08", 0) == 0);
+  // A rescaling target makes any weights acceptable.
+  CHECK(Messages(ParseStudyText(
+                     head + "process: {events: {weight: [0.1, 0.8], loop_weight: 0.5, spectral_radius: 0.5}}\n" + tail,
+                     "scaled.yaml")).empty());
+}
+
 TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output folder") {
   const std::filesystem::path dir = std::filesystem::temp_directory_path() / "locind_study_file_test";
   std::filesystem::remove_all(dir);
