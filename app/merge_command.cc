@@ -101,6 +101,12 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
 }  // namespace
 
 int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << "usage: locind merge DIR1 DIR2 ... [--out DIR]\n"
+           "  joins the folders of locind run --part 1/N ... N/N into the results of one run\n"
+           "  --out DIR     result folder (default results/<study name>)\n";
+    return kExitOk;
+  }
   try {
     return Merge(args, out, err);
   } catch (const MergeError& e) {

@@ -55,6 +55,12 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
 }  // namespace
 
 int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << "usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N]\n"
+           "  per learner, the smallest observation length with power >= --power and false-edge\n"
+           "  rate <= --false-edges (search settings: the plan section of the study file)\n";
+    return kExitOk;
+  }
   try {
     return Plan(args, out, err);
   } catch (const UsageError& e) {

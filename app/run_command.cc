@@ -130,6 +130,14 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
 }  // namespace
 
 int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << "usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N]\n"
+           "  --threads N   worker threads (default 1)\n"
+           "  --out DIR     result folder (default results/<study name>); an existing one is resumed\n"
+           "  --part K/N    run share K of N (join the shares with locind merge)\n"
+           "Study files: configs/README.md; output columns: results/README.md\n";
+    return kExitOk;
+  }
   try {
     return Run(args, out, err);
   } catch (const UsageError& e) {
