@@ -247,9 +247,28 @@ int Learn(const std::vector<std::string>& args, std::ostream& out) {
   return kExitOk;
 }
 
+const char kLearnHelp[] =
+    "usage: locind learn --methods\n"
+    "       locind learn DATA.csv --method NAME [--test NAME] [--level 0.05] [--out DIR] [--json]\n"
+    "       locind learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]\n"
+    "  --methods        list the methods (name, tab, description)\n"
+    "  --method NAME    the learning method\n"
+    "  --test NAME      events: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed;\n"
+    "                   paths: drift-f (default), drift-robust-wald\n"
+    "  --level L        reject independence when p <= L (default 0.05)\n"
+    "  --size K         screen: at most K processes in C besides the target (default 1)\n"
+    "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"
+    "  --oracle FILE    answer tests from the graph file (hidden nodes hidden)\n"
+    "  --out DIR        write graph.json, graph.dot, graph.svg and tests.csv into DIR\n"
+    "  --json           print the graph as JSON (the shape of graph class --json)\n";
+
 }  // namespace
 
 int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << kLearnHelp;
+    return kExitOk;
+  }
   try {
     return Learn(args, out);
   } catch (const InputError& e) {

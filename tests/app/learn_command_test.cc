@@ -43,6 +43,13 @@ TEST_CASE("--methods lists name TAB description, one per line") {
   CHECK(o.out.find("\nscreen\t") != std::string::npos);
 }
 
+TEST_CASE("--help prints the usage") {
+  const Outcome o = Learn({"--help"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.rfind("usage: locind learn --methods\n", 0) == 0);
+  CHECK(o.out.find("--oracle FILE") != std::string::npos);
+}
+
 TEST_CASE("--oracle --json prints exactly the class of `graph class --json`") {
   std::ostringstream out, err;
   REQUIRE(RunGraphCommand({"class", kExample, "--json"}, out, err) == kExitOk);
