@@ -1,14 +1,11 @@
 #include "app/results_writer.h"
 
 #include <filesystem>
-#include <mutex>
 #include <sstream>
-
-#include <graphviz/cgraph.h>
-#include <graphviz/gvc.h>
 
 #include "app/atomic_file.h"
 #include "app/graph_json.h"
+#include "app/svg_render.h"
 #include "graph/dot_format.h"
 
 namespace locind::app {
@@ -91,37 +88,12 @@ std::string TruthsJson(const StudyTruths& truths) {
   return o.str();
 }
 
-// SVG of DOT text with one Graphviz context kept for the whole process. A
-// study draws several graphs in one process, and with Graphviz 2.42 a fresh
-// context per drawing (app/svg_render.h) makes the pango text-layout plugin
-// compare against a font name freed with the previous context (a
-// heap-use-after-free that AddressSanitizer reports from the second drawing
-// on). One context for all drawings keeps that name alive.
-Result<std::string> RenderStudySvg(const std::string& dot) {
-  static std::mutex mutex;
-  static GVC_t* const gvc = gvContext();
-  std::lock_guard<std::mutex> lock(mutex);
-  Agraph_t* g = agmemread(dot.c_str());
-  if (g == nullptr) return Status::Error("Graphviz could not read the DOT text");
-  std::string svg;
-  if (gvLayout(gvc, g, "dot") == 0) {
-    char* data = nullptr;
-    unsigned int length = 0;
-    if (gvRenderData(gvc, g, "svg", &data, &length) == 0 && data != nullptr) svg.assign(data, length);
-    gvFreeRenderData(data);
-    gvFreeLayout(gvc, g);
-  }
-  agclose(g);
-  if (svg.empty()) return Status::Error("Graphviz could not lay out the graph");
-  return svg;
-}
-
 Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
   for (const auto& [id, t] : truths.all()) {
     graph::DotOptions truth_style;
     truth_style.title = "truth " + t.label;
     truth_style.hidden = t.truth.hidden;
-    Result<std::string> svg = RenderStudySvg(graph::ToDot(t.truth.graph, truth_style));
+    Result<std::string> svg = RenderSvg(graph::ToDot(t.truth.graph, truth_style));
     if (!svg.ok()) return svg.status();
     Status s = WriteFileAtomically(dir + "/truth-" + t.label + ".svg", *svg);
     if (!s.ok() || !t.truth_class.ok()) {
@@ -133,7 +105,7 @@ Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
     for (size_t i = 0; i < t.truth_class->edges.size(); ++i) {
       if (t.truth_class->dashed[i]) class_style.dashed.push_back(t.truth_class->edges[i]);
     }
-    svg = RenderStudySvg(graph::ToDot(t.truth_class->maximal, class_style));
+    svg = RenderSvg(graph::ToDot(t.truth_class->maximal, class_style));
     if (!svg.ok()) return svg.status();
     s = WriteFileAtomically(dir + "/class-" + t.label + ".svg", *svg);
     if (!s.ok()) return s;

@@ -106,8 +106,9 @@ Simulated SimulatePaths(const StudySpec& study, const PreparedTruth& truth, cons
 }
 
 // The test a learner asks, or an error message.
+// `draws_seed` keys the test's own Monte Carlo draws to this replicate.
 std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
-    const LearnerSpec& spec, const PreparedTruth& truth, Simulated& data) {
+    const LearnerSpec& spec, const PreparedTruth& truth, Simulated& data, uint64_t draws_seed) {
   if (spec.test == "oracle") {
     Result<learners::OracleTest> oracle = learners::OracleTest::FromTruth(truth.truth);
     if (!oracle.ok()) return oracle.status().message();
@@ -117,6 +118,7 @@ std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
   if (data.events) {
     if (!data.features) return std::string("features: not prepared");
     learners::HawkesTestOptions options;
+    options.seed = draws_seed;
     if (spec.test == "hawkes-lr-chibar") options.boundary = learners::BoundaryReference::kChiBarSquared;
     if (spec.test == "hawkes-lr-signed") options.link = learners::HawkesLink::kSoftplus;
     return std::make_unique<learners::HawkesLrTest>(data.features, options);
@@ -196,10 +198,13 @@ void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_clas
 }
 
 // Runs one learner on the data and scores it; fills `row` and the edge lines.
-void RunLearner(const LearnerSpec& spec, const PreparedTruth& truth, const Cell& cell,
-                Simulated& data, ReplicateRow& row, std::vector<std::string>& edge_lines) {
+void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& truth,
+                const Cell& cell, Simulated& data, ReplicateRow& row,
+                std::vector<std::string>& edge_lines) {
   const Clock::time_point start = Clock::now();
-  auto test = MakeTest(spec, truth, data);
+  const uint64_t draws_seed = graph::StreamSeed(
+      {seed, cell.key, static_cast<uint64_t>(row.replicate), kPurposeTestDraws});
+  auto test = MakeTest(spec, truth, data, draws_seed);
   if (auto* message = std::get_if<std::string>(&test)) {
     row.ok = false;
     row.message = *message;
@@ -276,7 +281,7 @@ UnitResult RunUnit(const StudySpec& study, const Cell& cell, const StudyTruths& 
       row.ok = false;
       row.message = failure;
     } else {
-      RunLearner(spec, truth, cell, data, row, out.edge_lines);
+      RunLearner(study.seed, spec, truth, cell, data, row, out.edge_lines);
     }
     if (!row.ok) {
       row.score.power = NAN;

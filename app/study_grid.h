@@ -25,6 +25,7 @@ enum StreamPurpose : uint64_t {
   kPurposeParameters = 2,
   kPurposeData = 3,
   kPurposeSummary = 4,
+  kPurposeTestDraws = 5,  // Monte Carlo draws inside a test (chi-bar weights)
 };
 
 struct Cell {

@@ -7,16 +7,17 @@
 
 namespace locind::app {
 
+// One Graphviz context for the whole process, used under a lock: with
+// Graphviz 2.42 a fresh context per drawing makes the pango text-layout
+// plugin compare against a font name freed with the previous context (a
+// heap-use-after-free that AddressSanitizer reports from the second drawing
+// on). The context lives until exit on purpose.
 Result<std::string> RenderSvg(const std::string& dot) {
-  // The Graphviz library keeps global state; render one graph at a time.
   static std::mutex mutex;
   std::lock_guard<std::mutex> lock(mutex);
-  GVC_t* gvc = gvContext();
+  static GVC_t* const gvc = gvContext();
   Agraph_t* g = agmemread(dot.c_str());
-  if (g == nullptr) {
-    gvFreeContext(gvc);
-    return Status::Error("Graphviz could not read the DOT text");
-  }
+  if (g == nullptr) return Status::Error("Graphviz could not read the DOT text");
   std::string svg;
   if (gvLayout(gvc, g, "dot") == 0) {
     char* data = nullptr;
@@ -28,7 +29,6 @@ Result<std::string> RenderSvg(const std::string& dot) {
     gvFreeLayout(gvc, g);
   }
   agclose(g);
-  gvFreeContext(gvc);
   if (svg.empty()) return Status::Error("Graphviz could not lay out the graph");
   return svg;
 }

@@ -81,6 +81,7 @@ Result<EquivalenceGraph> ComputeEquivalenceGraph(const BitGraph& g) {
 }
 
 Result<std::vector<BitGraph>> ClassMembers(const BitGraph& g, size_t max_members) {
+  if (max_members < 1) return Status::Error("max_members must be at least 1");
   Result<EquivalenceGraph> eg = ComputeEquivalenceGraph(g);
   if (!eg.ok()) return eg.status();
   std::vector<Edge> dashed;

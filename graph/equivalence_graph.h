@@ -1,8 +1,8 @@
 // The maximal graph and the equivalence graph of a Markov equivalence class.
 //
 // Every class of directed mixed graphs has a unique maximal member, a
-// supergraph of all members (Mogensen & Hansen 2020, Ann. Statist. 48(1),
-// Thm. 4.x). The equivalence graph is that maximal graph with each edge marked
+// supergraph of all members (Mogensen & Hansen 2020, Ann. Statist. 48(1);
+// the test suite re-checks uniqueness on every graph with 3 nodes). The equivalence graph is that maximal graph with each edge marked
 // solid (in every member) or dashed (missing from some member).
 //
 // How it is computed (DESIGN.md F2, F4, F5): an absent edge e belongs to the

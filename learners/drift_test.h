@@ -14,9 +14,10 @@
 //
 // Tests of the |A| * (1 + K) A-coefficients:
 //   * kF (default): nested-model F test, F = ((RSS_r - RSS_f)/q) /
-//     (RSS_f/(n - p)) on (q, n - p) degrees of freedom (exact under normal
-//     homoskedastic errors; e.g. Greene 2012, Econometric Analysis, 7th ed.,
-//     Sec. 5.3). TestResult.df is q; the denominator df is n - p.
+//     (RSS_f/(n - p)) on (q, n - p) degrees of freedom (asymptotic here: the
+//     regressors include the target's own past, so the exact normal-theory
+//     law of Greene 2012, Econometric Analysis, 7th ed., Sec. 5.3, holds only
+//     in the limit). TestResult.df is q; the denominator df is n - p.
 //   * kRobustWald: Wald statistic with the heteroskedasticity-consistent
 //     covariance HC0 (White 1980, Econometrica 48(4)) scaled by n/(n - p)
 //     (HC1; MacKinnon & White 1985, J. Econometrics 29), chi^2_q reference;

@@ -14,8 +14,10 @@
 // 4^(k - (K-1)/2) / tau, k = 0..K-1; for K = 3 that is {1/(4 tau), 1/tau,
 // 4/tau}. A user may give any positive rates instead.
 //
-// Blocks are computed on first use and kept; the object is not thread-safe
-// until ComputeAll() has been called (after it, reads are const).
+// Blocks are computed on first use and kept; the object is not thread-safe.
+// ComputeAll() fills the event and integral blocks, but the quadrature grid
+// used by the signed test is still built lazily: give each thread its own
+// object.
 #pragma once
 
 #include <map>

@@ -29,7 +29,7 @@ const std::vector<MethodEntry>& LearningMethods() {
       {"pairwise", "a -> b unless b is independent of a given all other processes", true,
        MakePlain<PairwiseLearner>},
       {"maximal-search",
-       "sound and complete search for the maximal graph and its solid/dashed marks", true,
+       "search for the maximal graph and its solid/dashed marks (exact under the oracle)", true,
        MakePlain<MaximalSearch>},
       {"exhaustive", "every edge from the full list of separations (reference; small graphs)",
        true, MakePlain<ExhaustiveLearner>},

@@ -1,5 +1,7 @@
-// maximal-search: the sound and complete search for the maximal graph and
-// its equivalence graph under partial observation.
+// maximal-search: a search for the maximal graph and its equivalence graph
+// under partial observation. Under the oracle it returns exactly the maximal
+// graph on every graph checked (all 3-node graphs, thousands of random ones);
+// the sufficiency of its final-phase criterion is checked, not proved.
 //
 // It follows the learning algorithm of Mogensen, Malinsky & Hansen (2018,
 // UAI, Sec. 4) in four phases:

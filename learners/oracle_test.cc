@@ -1,5 +1,7 @@
 #include "learners/oracle_test.h"
 
+#include <cassert>
+
 #include "graph/latent_projection.h"
 #include "graph/mu_separation.h"
 
@@ -21,7 +23,9 @@ Result<OracleTest> OracleTest::FromTruth(const graph::TruthGraph& truth) {
 }
 
 OracleTest::OracleTest(const graph::Dmg& observed_graph)
-    : graph_(*graph::ToBitGraph(observed_graph)), names_(observed_graph.names()) {}
+    : graph_(*graph::ToBitGraph(observed_graph)), names_(observed_graph.names()) {
+  assert(observed_graph.size() <= graph::kMaxBitGraphNodes);
+}
 
 TestResult OracleTest::Run(const TestQuery& q) {
   const graph::Mask sources = ToMask(q.sources);

@@ -18,6 +18,8 @@ class OracleTest : public IndependenceTest {
   // Projects the truth onto its observed nodes; fails beyond 64 nodes.
   static Result<OracleTest> FromTruth(const graph::TruthGraph& truth);
   // An oracle for a graph whose every node is observed.
+  // REQUIRES: at most graph::kMaxBitGraphNodes nodes (use FromTruth for
+  // graphs read from users, which checks).
   explicit OracleTest(const graph::Dmg& observed_graph);
 
   int processes() const override { return graph_.n; }

@@ -39,13 +39,14 @@ HawkesDesign BuildHawkesDesign(HawkesFeatures& f, int b) {
   return d;
 }
 
-// The sources j with a selected coefficient in b's penalized fit.
-std::vector<int> HawkesParents(HawkesFeatures& f, int b, double scale) {
+// The sources j with a selected coefficient in b's penalized fit; fails when
+// the fit does not converge.
+Result<std::vector<int>> HawkesParents(HawkesFeatures& f, int b, double scale) {
   const int n = f.data().processes();
   const int k = f.basis_size();
   const HawkesDesign d = BuildHawkesDesign(f, b);
   const Eigen::Index events = d.z.rows();
-  if (events < 2) return {};
+  if (events < 2) return std::vector<int>{};
   const double lambda0 = events / f.data().duration();
   const Eigen::Index p = d.z.cols();
   VectorXd weight = VectorXd::Zero(p);
@@ -69,6 +70,10 @@ std::vector<int> HawkesParents(HawkesFeatures& f, int b, double scale) {
   VectorXd lower = VectorXd::Zero(p);
   lower[0] = 1e-9 * lambda0;
   const NewtonResult fit = MaximizeConcave(objective, start, lower);
+  if (!fit.converged) {
+    return Status::Error("penalized-fit: the penalized likelihood fit of process " +
+                         f.data().names[b] + " did not converge");
+  }
   // Selected: the coefficient carries more than a 1e-6 share of the base rate.
   std::vector<int> parents;
   for (int j = 0; j < n; ++j) {
@@ -111,7 +116,9 @@ VectorXd Lasso(const MatrixXd& x, const VectorXd& y, const VectorXd& penalty) {
   return beta;
 }
 
-std::vector<int> DriftParents(DriftTest& test, int b, double scale) {
+// Fails when there are too few increments for the noise scale that sets the
+// penalty (the same rule as the drift test: at least coefficients + 10).
+Result<std::vector<int>> DriftParents(DriftTest& test, int b, double scale) {
   const int n = test.processes();
   std::vector<int> all(n);
   for (int j = 0; j < n; ++j) all[j] = j;
@@ -119,6 +126,11 @@ std::vector<int> DriftParents(DriftTest& test, int b, double scale) {
   const VectorXd y = test.Response(b);
   const Eigen::Index rows = x.rows();
   const Eigen::Index p = x.cols();
+  if (n < 1 || rows < p + 10) {
+    return Status::Error("penalized-fit: " + std::to_string(rows) + " increments are too few for " +
+                         std::to_string(p) + " coefficients (need at least " +
+                         std::to_string(p + 10) + ")");
+  }
   const int width = static_cast<int>((p - 1) / n);
   // Scale the penalized columns to unit root mean square.
   for (Eigen::Index c = 1; c < p; ++c) {
@@ -157,14 +169,18 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
     if (!f.ok()) return f.status();
     names = input.events->names;
     for (int b = 0; b < input.events->processes(); ++b) {
-      parents.push_back(HawkesParents(f.value(), b, scale_));
+      Result<std::vector<int>> found = HawkesParents(f.value(), b, scale_);
+      if (!found.ok()) return found.status();
+      parents.push_back(*found);
     }
   } else {
     Result<DriftTest> test = DriftTest::Create(*input.paths);
     if (!test.ok()) return test.status();
     names = input.paths->names;
     for (int b = 0; b < input.paths->processes(); ++b) {
-      parents.push_back(DriftParents(test.value(), b, scale_));
+      Result<std::vector<int>> found = DriftParents(test.value(), b, scale_);
+      if (!found.ok()) return found.status();
+      parents.push_back(*found);
     }
   }
   result.graph = graph::Dmg(names);

@@ -24,6 +24,9 @@ Eigen::VectorXd NewtonStepOnFree(const Eigen::MatrixXd& hessian, const Eigen::Ve
     for (Eigen::Index j = 0; j < m; ++j) a(i, j) = -hessian(free[i], free[j]);
   }
   const double scale = std::max(a.diagonal().cwiseAbs().maxCoeff(), 1e-300);
+  // Overflowed curvature would make the ridge loop below endless; the caller
+  // stops on non-finite derivatives, this only guards the loop.
+  if (!std::isfinite(scale)) return Eigen::VectorXd::Zero(m);
   for (double ridge = 0;; ridge = ridge == 0 ? 1e-12 * scale : ridge * 100) {
     Eigen::MatrixXd shifted = a;
     shifted.diagonal().array() += ridge;
@@ -49,6 +52,12 @@ NewtonResult MaximizeConcave(const ConcaveObjective& f, const Eigen::VectorXd& s
   Eigen::MatrixXd h(n, n);
   for (result.iterations = 0; result.iterations < options.max_iterations; ++result.iterations) {
     f.derivatives(result.x, g, h);
+    // Overflowed derivatives (e.g. an intensity near zero): report a failed
+    // fit, which the tests turn into "not estimable", rather than iterate on.
+    if (!g.allFinite() || !h.allFinite()) {
+      result.converged = false;
+      return result;
+    }
     const Eigen::VectorXd projected_gradient = Project(result.x + g, lower) - result.x;
     // Active set with the eps of Bertsekas (1982), eq. (3.6).
     const double eps = std::min(1e-6, projected_gradient.norm());

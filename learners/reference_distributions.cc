@@ -1,6 +1,7 @@
 #include "learners/reference_distributions.h"
 
 #include <algorithm>
+#include <cmath>
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
@@ -51,6 +52,7 @@ std::vector<double> ChiBarSquaredWeights(const Eigen::MatrixXd& covariance, int 
 }
 
 double ChiBarSquaredSurvival(const std::vector<double>& weights, double t) {
+  if (std::isnan(t)) return t;
   if (t <= 0) return 1;
   double p = 0;
   for (size_t i = 1; i < weights.size(); ++i) p += weights[i] * ChiSquaredSurvival(double(i), t);
@@ -58,11 +60,15 @@ double ChiBarSquaredSurvival(const std::vector<double>& weights, double t) {
 }
 
 double ChiSquaredSurvival(double df, double t) {
+  if (std::isnan(t)) return t;
+  if (std::isinf(t)) return t > 0 ? 0 : 1;
   if (t <= 0) return 1;
   return boost::math::cdf(boost::math::complement(boost::math::chi_squared_distribution<>(df), t));
 }
 
 double FSurvival(double df1, double df2, double t) {
+  if (std::isnan(t)) return t;
+  if (std::isinf(t)) return t > 0 ? 0 : 1;
   if (t <= 0) return 1;
   return boost::math::cdf(
       boost::math::complement(boost::math::fisher_f_distribution<>(df1, df2), t));

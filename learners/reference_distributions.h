@@ -29,10 +29,12 @@ std::vector<double> ChiBarSquaredWeights(const Eigen::MatrixXd& covariance, int 
 // point mass at 0, so t <= 0 gives 1).
 double ChiBarSquaredSurvival(const std::vector<double>& weights, double t);
 
-// P(chi^2_df >= t), df > 0 (Boost.Math); 1 for t <= 0.
+// P(chi^2_df >= t), df > 0 (Boost.Math); 1 for t <= 0, 0 for t = +inf, NaN
+// for a NaN statistic (never an exception).
 double ChiSquaredSurvival(double df, double t);
 
-// P(F_{df1, df2} >= t) (Boost.Math); 1 for t <= 0.
+// P(F_{df1, df2} >= t) (Boost.Math); 1 for t <= 0, 0 for t = +inf, NaN for
+// a NaN statistic.
 double FSurvival(double df1, double df2, double t);
 
 }  // namespace locind::learners

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <bit>
+#include <cmath>
 
 namespace locind::learners {
 
@@ -10,7 +11,8 @@ bool TestRunner::Dependent(int source, int target, graph::Mask given) {
   if (auto it = answers_.find(key); it != answers_.end()) return it->second;
   TestQuery query{target, {source}, MaskToList(given)};
   const TestResult r = test_.Run(query);
-  const bool not_estimable = r.status == TestStatus::kNotEstimable;
+  // A p-value that is not a number is evidence the test could not compute.
+  const bool not_estimable = r.status == TestStatus::kNotEstimable || std::isnan(r.p_value);
   // Not estimable counts as dependent: the edge is kept (learners/learner.h).
   const bool dependent = not_estimable || r.p_value <= level_;
   if (not_estimable) ++not_estimable_;

@@ -25,7 +25,11 @@ Interval WilsonInterval(int64_t successes, int64_t trials, double confidence) {
   const double z2 = z * z;
   const double centre = (p + z2 / (2 * n)) / (1 + z2 / n);
   const double half = z / (1 + z2 / n) * std::sqrt(p * (1 - p) / n + z2 / (4 * n * n));
-  return {p, std::max(0.0, centre - half), std::min(1.0, centre + half)};
+  // At 0 or n successes the bound is exactly 0 or 1; rounding would leave
+  // values like 7e-18.
+  const double low = successes == 0 ? 0.0 : std::max(0.0, centre - half);
+  const double high = successes == trials ? 1.0 : std::min(1.0, centre + half);
+  return {p, low, high};
 }
 
 Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
