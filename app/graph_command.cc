@@ -11,6 +11,7 @@
 
 #include "app/atomic_file.h"
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/graph_file.h"
 #include "app/graph_json.h"
 #include "app/svg_render.h"
@@ -28,10 +29,6 @@ namespace po = boost::program_options;
 using graph::Dmg;
 using graph::TruthGraph;
 
-struct UsageError {
-  std::string message;
-};
-
 // Parses `args` with `options` and one or more positional FILE arguments.
 po::variables_map ParseArgs(const std::vector<std::string>& args, const po::options_description& options,
                             int files) {
@@ -46,15 +43,6 @@ po::variables_map ParseArgs(const std::vector<std::string>& args, const po::opti
     throw UsageError{"expected " + std::to_string(files) + " graph file(s)"};
   }
   return vm;
-}
-
-std::vector<std::string> SplitList(const std::string& text) {
-  std::vector<std::string> out;
-  std::stringstream in(text);
-  for (std::string item; std::getline(in, item, ',');) {
-    if (!item.empty()) out.push_back(item);
-  }
-  return out;
 }
 
 // Reads a graph file and projects it onto its observed nodes.
@@ -219,21 +207,9 @@ int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std
     return kExitInputError;
   }
   const std::vector<std::string> rest(args.begin() + 1, args.end());
-  try {
+  return GuardCommand("graph " + args[0], err, [&] {
     return kSubcommands.at(args[0])(rest, out);
-  } catch (const InputError& e) {
-    err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const UsageError& e) {
-    err << "locind graph " << args[0] << ": " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind graph " << args[0] << ": " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind graph " << args[0] << ": " << e.what() << "\n";
-    return kExitFailure;
-  }
+  });
 }
 
 }  // namespace locind::app

@@ -18,6 +18,7 @@
 
 #include "app/atomic_file.h"
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/event_csv.h"
 #include "app/graph_file.h"
 #include "app/graph_json.h"
@@ -35,10 +36,6 @@ namespace {
 
 namespace po = boost::program_options;
 using learners::LearnResult;
-
-struct UsageError {
-  std::string message;
-};
 
 struct LearnOptions {
   std::string data;    // DATA.csv, or empty
@@ -269,21 +266,9 @@ int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std
     out << kLearnHelp;
     return kExitOk;
   }
-  try {
+  return GuardCommand("learn", err, [&] {
     return Learn(args, out);
-  } catch (const InputError& e) {
-    err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const UsageError& e) {
-    err << "locind learn: " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind learn: " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind learn: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  });
 }
 
 }  // namespace locind::app

@@ -11,6 +11,7 @@
 #include <boost/program_options.hpp>
 
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/study_file.h"
 #include "app/study_planner.h"
 
@@ -18,10 +19,6 @@ namespace locind::app {
 namespace {
 
 namespace po = boost::program_options;
-
-struct UsageError {
-  std::string message;
-};
 
 int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   std::string path;
@@ -61,18 +58,9 @@ int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std:
            "  rate <= --false-edges (search settings: the plan section of the study file)\n";
     return kExitOk;
   }
-  try {
+  return GuardCommand("plan", err, [&] {
     return Plan(args, out, err);
-  } catch (const UsageError& e) {
-    err << "locind plan: " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind plan: " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind plan: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  });
 }
 
 }  // namespace locind::app

@@ -15,6 +15,7 @@
 #include <sstream>
 
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/progress.h"
 #include "app/results_table.h"
 #include "app/results_writer.h"
@@ -26,10 +27,6 @@ namespace locind::app {
 namespace {
 
 namespace po = boost::program_options;
-
-struct UsageError {
-  std::string message;
-};
 
 struct RunOptions {
   std::string study;
@@ -138,18 +135,9 @@ int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::
            "Study files: configs/README.md; output columns: results/README.md\n";
     return kExitOk;
   }
-  try {
+  return GuardCommand("run", err, [&] {
     return Run(args, out, err);
-  } catch (const UsageError& e) {
-    err << "locind run: " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind run: " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind run: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  });
 }
 
 }  // namespace locind::app

@@ -9,6 +9,7 @@
 
 #include "app/atomic_file.h"
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/event_csv.h"
 #include "app/model_file.h"
 #include "app/path_csv.h"
@@ -28,10 +29,6 @@ struct Options {
   double horizon = 0;
   uint64_t seed = 0;
   uint64_t replicate = 0;
-};
-
-struct UsageError {
-  std::string message;
 };
 
 Options ParseOptions(const std::vector<std::string>& args) {
@@ -81,7 +78,7 @@ int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, 
         << "Model files and CSV formats: configs/models/README.md\n";
     return kExitOk;
   }
-  try {
+  return GuardCommand("simulate", err, [&] {
     const Options o = ParseOptions(args);
     ModelOrError model = ReadModelFile(o.model);
     if (auto* e = std::get_if<InputError>(&model)) throw *e;
@@ -91,19 +88,7 @@ int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, 
     if (!written.ok()) throw std::runtime_error(written.message());
     out << "wrote " << o.out << " (" << summary << ")\n";
     return kExitOk;
-  } catch (const InputError& e) {
-    err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const UsageError& e) {
-    err << "locind simulate: " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind simulate: " << e.what() << "\n" << kUsage << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind simulate: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  }, kUsage);
 }
 
 }  // namespace locind::app

@@ -1,5 +1,6 @@
 list(APPEND LOCIND_APP_SOURCES
   app/atomic_file.cc
+  app/command_guard.cc
   app/graph_command.cc
   app/learn_command.cc
   app/graph_file.cc

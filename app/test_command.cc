@@ -19,6 +19,7 @@
 #include <sstream>
 
 #include "app/command.h"
+#include "app/command_guard.h"
 #include "app/event_csv.h"
 #include "app/graph_json.h"
 #include "app/path_csv.h"
@@ -30,10 +31,6 @@ namespace locind::app {
 namespace {
 
 namespace po = boost::program_options;
-
-struct UsageError {
-  std::string message;
-};
 
 struct TestOptions {
   std::string data;
@@ -65,15 +62,6 @@ TestOptions ParseOptions(const std::vector<std::string>& args) {
     throw UsageError{"--kind must be events or paths"};
   }
   return o;
-}
-
-std::vector<std::string> SplitList(const std::string& text) {
-  std::vector<std::string> out;
-  std::stringstream in(text);
-  for (std::string item; std::getline(in, item, ',');) {
-    if (!item.empty()) out.push_back(item);
-  }
-  return out;
 }
 
 // True when the first line that is not a '#' comment is "time,process".
@@ -209,21 +197,9 @@ int Test(const std::vector<std::string>& args, std::ostream& out) {
 }  // namespace
 
 int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  try {
+  return GuardCommand("test", err, [&] {
     return Test(args, out);
-  } catch (const InputError& e) {
-    err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const UsageError& e) {
-    err << "locind test: " << e.message << "\n";
-    return kExitInputError;
-  } catch (const po::error& e) {
-    err << "locind test: " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind test: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  });
 }
 
 }  // namespace locind::app

@@ -1,0 +1,28 @@
+// What every command handler shares: the usage error it throws, the
+// comma-list splitter for node options, and the guard that turns errors
+// into one line on the error stream and an exit code.
+#pragma once
+
+#include <functional>
+#include <ostream>
+#include <string>
+#include <vector>
+
+namespace locind::app {
+
+// A wrong or missing option; printed as "locind NAME: message", exit 2.
+struct UsageError {
+  std::string message;
+};
+
+// "a,b,,c" -> {"a", "b", "c"}.
+std::vector<std::string> SplitList(const std::string& text);
+
+// Runs `body` and returns its exit code. InputError prints its own
+// FILE:LINE:COLUMN line and UsageError or an option-parsing error prints
+// "locind NAME: message" (then `usage`, when given), all with exit code 2;
+// any other exception prints "locind NAME: message" with exit code 1.
+int GuardCommand(const std::string& name, std::ostream& err, const std::function<int()>& body,
+                 const std::string& usage = "");
+
+}  // namespace locind::app
