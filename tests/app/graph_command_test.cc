@@ -2,6 +2,8 @@
 // output format is caught.
 #include <doctest/doctest.h>
 
+#include "tests/app/command_fixture.h"
+
 #include <cstdio>
 #include <fstream>
 #include <sstream>
@@ -12,15 +14,10 @@
 namespace locind::app {
 namespace {
 
-struct Outcome {
-  int code;
-  std::string out, err;
-};
+using testing::Outcome;
 
 Outcome Run(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  const int code = RunGraphCommand(args, out, err);
-  return {code, out.str(), err.str()};
+  return testing::RunHandler(RunGraphCommand, args);
 }
 
 // examples/alarm_chain.yaml: a -> b, b -> b, h -> a, h -> c, c -> b, h hidden.

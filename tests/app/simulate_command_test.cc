@@ -1,6 +1,8 @@
 // `locind simulate` end to end on the bundled example models.
 #include <doctest/doctest.h>
 
+#include "tests/app/command_fixture.h"
+
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -14,15 +16,10 @@
 namespace locind::app {
 namespace {
 
-struct Outcome {
-  int code;
-  std::string out, err;
-};
+using testing::Outcome;
 
 Outcome Run(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  const int code = RunSimulateCommand(args, out, err);
-  return {code, out.str(), err.str()};
+  return testing::RunHandler(RunSimulateCommand, args);
 }
 
 std::string Slurp(const std::string& path) {

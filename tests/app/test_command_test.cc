@@ -2,6 +2,8 @@
 // tests, and bad input.
 #include <doctest/doctest.h>
 
+#include "tests/app/command_fixture.h"
+
 #include <filesystem>
 #include <fstream>
 #include <regex>
@@ -22,15 +24,10 @@
 namespace locind::app {
 namespace {
 
-struct Outcome {
-  int code;
-  std::string out, err;
-};
+using testing::Outcome;
 
 Outcome Run(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  const int code = RunTestCommand(args, out, err);
-  return {code, out.str(), err.str()};
+  return testing::RunHandler(RunTestCommand, args);
 }
 
 graph::TruthGraph PairTruth() {
