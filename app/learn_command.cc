@@ -19,6 +19,7 @@
 #include "app/atomic_file.h"
 #include "app/command.h"
 #include "app/command_guard.h"
+#include "app/test_choice.h"
 #include "app/event_csv.h"
 #include "app/graph_file.h"
 #include "app/graph_json.h"
@@ -86,51 +87,31 @@ struct Inputs {
   std::unique_ptr<sim::PathData> paths;
 };
 
-// True when the first line that is not a '#' comment is "time,process".
-bool LooksLikeEventFile(const std::string& path) {
-  std::ifstream in(path);
-  if (!in) throw InputError{path, 0, 0, "", "cannot open the file"};
-  for (std::string line; std::getline(in, line);) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.empty() || line[0] == '#') continue;
-    return line == "time,process";
-  }
-  return false;
-}
-
 void LoadEvents(const LearnOptions& o, Inputs& in) {
   EventsOrError read = ReadEventCsvFile(o.data);
   if (auto* e = std::get_if<InputError>(&read)) throw *e;
   in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
-  const std::string test = o.test.empty() ? "hawkes-lr" : o.test;
-  learners::HawkesTestOptions options;
-  if (test == "hawkes-lr-chibar") {
-    options.boundary = learners::BoundaryReference::kChiBarSquared;
-  } else if (test == "hawkes-lr-signed") {
-    options.link = learners::HawkesLink::kSoftplus;
-  } else if (test != "hawkes-lr") {
-    throw UsageError{"unknown test '" + test +
+  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test +
                      "' for event data (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
   }
   auto features =
       learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
   if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
   in.test = std::make_unique<learners::HawkesLrTest>(
-      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), options);
+      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
 }
 
 void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathCsvFile(o.data);
   if (auto* e = std::get_if<InputError>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
-  const std::string test = o.test.empty() ? "drift-f" : o.test;
-  learners::DriftTestOptions options;
-  if (test == "drift-robust-wald") {
-    options.statistic = learners::DriftStatistic::kRobustWald;
-  } else if (test != "drift-f") {
-    throw UsageError{"unknown test '" + test + "' for path data (drift-f, drift-robust-wald)"};
+  const std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test + "' for path data (drift-f, drift-robust-wald)"};
   }
-  auto made = learners::DriftTest::Create(*in.paths, options);
+  auto made = learners::DriftTest::Create(*in.paths, *options);
   if (!made.ok()) throw InputError{o.data, 0, 0, "", made.status().message()};
   in.test = std::make_unique<learners::DriftTest>(std::move(made.value()));
 }

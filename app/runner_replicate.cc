@@ -7,6 +7,7 @@
 #include <sstream>
 #include <variant>
 
+#include "app/test_choice.h"
 #include "learners/drift_test.h"
 #include "learners/hawkes_features.h"
 #include "learners/hawkes_lr_test.h"
@@ -117,15 +118,15 @@ std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
   if (spec.test == "none") return std::unique_ptr<learners::IndependenceTest>();
   if (data.events) {
     if (!data.features) return std::string("features: not prepared");
-    learners::HawkesTestOptions options;
-    options.seed = draws_seed;
-    if (spec.test == "hawkes-lr-chibar") options.boundary = learners::BoundaryReference::kChiBarSquared;
-    if (spec.test == "hawkes-lr-signed") options.link = learners::HawkesLink::kSoftplus;
-    return std::make_unique<learners::HawkesLrTest>(data.features, options);
+    // Study files are validated, so the name is a known event test.
+    std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(spec.test);
+    if (!options) return "test: unknown event test '" + spec.test + "'";
+    options->seed = draws_seed;
+    return std::make_unique<learners::HawkesLrTest>(data.features, *options);
   }
-  learners::DriftTestOptions options;
-  if (spec.test == "drift-robust-wald") options.statistic = learners::DriftStatistic::kRobustWald;
-  Result<learners::DriftTest> made = learners::DriftTest::Create(*data.paths, options);
+  const std::optional<learners::DriftTestOptions> options = DriftTestChoice(spec.test);
+  if (!options) return "test: unknown path test '" + spec.test + "'";
+  Result<learners::DriftTest> made = learners::DriftTest::Create(*data.paths, *options);
   if (!made.ok()) return "test: " + made.status().message();
   return std::make_unique<learners::DriftTest>(std::move(made.value()));
 }

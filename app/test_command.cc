@@ -20,6 +20,7 @@
 
 #include "app/command.h"
 #include "app/command_guard.h"
+#include "app/test_choice.h"
 #include "app/event_csv.h"
 #include "app/graph_json.h"
 #include "app/path_csv.h"
@@ -64,18 +65,6 @@ TestOptions ParseOptions(const std::vector<std::string>& args) {
   return o;
 }
 
-// True when the first line that is not a '#' comment is "time,process".
-bool LooksLikeEventFile(const std::string& path) {
-  std::ifstream in(path);
-  if (!in) throw InputError{path, 0, 0, "", "cannot open the file"};
-  for (std::string line; std::getline(in, line);) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.empty() || line[0] == '#') continue;
-    return line == "time,process";
-  }
-  return false;
-}
-
 std::vector<double> ParseRates(const TestOptions& o) {
   std::vector<double> rates;
   for (const std::string& item : SplitList(o.rates)) {
@@ -92,35 +81,28 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   EventsOrError read = ReadEventCsvFile(o.data);
   if (auto* e = std::get_if<InputError>(&read)) throw *e;
   sim::EventData data = std::get<sim::EventData>(std::move(read));
-  const std::string name = o.test.empty() ? "hawkes-lr" : o.test;
-  learners::HawkesTestOptions options;
-  if (name == "hawkes-lr-chibar") {
-    options.boundary = learners::BoundaryReference::kChiBarSquared;
-  } else if (name == "hawkes-lr-signed") {
-    options.link = learners::HawkesLink::kSoftplus;
-  } else if (name != "hawkes-lr") {
-    throw UsageError{"unknown test '" + name + "' for events (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
+  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test +
+                     "' for events (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
   }
   std::vector<double> rates = ParseRates(o);
   if (rates.empty()) rates = learners::DefaultHawkesRates(data);
   auto features = learners::HawkesFeatures::Create(std::move(data), rates);
   if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
   return std::make_unique<learners::HawkesLrTest>(
-      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), options);
+      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
 }
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathCsvFile(o.data);
   if (auto* e = std::get_if<InputError>(&read)) throw *e;
-  const std::string name = o.test.empty() ? "drift-f" : o.test;
-  learners::DriftTestOptions options;
-  if (name == "drift-robust-wald") {
-    options.statistic = learners::DriftStatistic::kRobustWald;
-  } else if (name != "drift-f") {
-    throw UsageError{"unknown test '" + name + "' for paths (drift-f, drift-robust-wald)"};
+  std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test + "' for paths (drift-f, drift-robust-wald)"};
   }
-  options.rates = ParseRates(o);
-  auto made = learners::DriftTest::Create(std::get<sim::PathData>(std::move(read)), options);
+  options->rates = ParseRates(o);
+  auto made = learners::DriftTest::Create(std::get<sim::PathData>(std::move(read)), *options);
   if (!made.ok()) throw InputError{o.data, 0, 0, "", made.status().message()};
   return std::make_unique<learners::DriftTest>(std::move(made.value()));
 }
