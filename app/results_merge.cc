@@ -3,6 +3,7 @@
 #include <filesystem>
 #include <fstream>
 #include <sstream>
+#include <tuple>
 
 namespace locind::app {
 namespace {
@@ -32,6 +33,27 @@ std::optional<Unit> UnitOfLine(const std::string& line) {
   } catch (const std::exception&) {
     return std::nullopt;
   }
+}
+
+// Appends the rows of DIR/FILE (after its header) to the lines of their units.
+Status ReadUnitLines(const std::string& dir, const std::string& file, const std::string& header,
+                     std::map<Unit, UnitResult>& units,
+                     std::vector<std::string> UnitResult::*member) {
+  const std::string path = dir + "/" + file;
+  Result<std::string> text = ReadText(path);
+  if (!text.ok()) return text.status();
+  const std::vector<std::string> lines = Lines(*text);
+  if (lines.empty() || lines[0] != header) {
+    return Status::Error(path + ":1:1: header: not the columns of this version of locind");
+  }
+  for (size_t i = 1; i < lines.size(); ++i) {
+    const std::optional<Unit> u = UnitOfLine(lines[i]);
+    if (!u || !units.count(*u)) {
+      return Status::Error(path + ":" + std::to_string(i + 1) + ":1: row: no matching replicate");
+    }
+    (units[*u].*member).push_back(lines[i]);
+  }
+  return Status::Ok();
 }
 
 }  // namespace
@@ -72,18 +94,11 @@ Result<PartFolder> ReadPartFolder(const std::string& dir) {
     p.units[u].unit = u;
     p.units[u].rows.push_back(std::move(*row));
   }
-  Result<std::string> edges = ReadText(dir + "/edges.csv");
-  if (!edges.ok()) return edges.status();
-  const std::vector<std::string> lines = Lines(*edges);
-  if (lines.empty() || lines[0] != EdgeHeader()) {
-    return Status::Error(dir + "/edges.csv:1:1: header: not the columns of this version of locind");
-  }
-  for (size_t i = 1; i < lines.size(); ++i) {
-    const std::optional<Unit> u = UnitOfLine(lines[i]);
-    if (!u || !p.units.count(*u)) {
-      return Status::Error(dir + "/edges.csv:" + std::to_string(i + 1) + ":1: row: no matching replicate");
-    }
-    p.units[*u].edge_lines.push_back(lines[i]);
+  for (const auto& [file, header, member] :
+       {std::tuple{"edges.csv", &EdgeHeader(), &UnitResult::edge_lines},
+        std::tuple{"null_tests.csv", &NullTestHeader(), &UnitResult::null_test_lines}}) {
+    Status s = ReadUnitLines(dir, file, *header, p.units, member);
+    if (!s.ok()) return s;
   }
   return p;
 }

@@ -15,10 +15,10 @@ struct PartFolder {
   Part part;
   std::string study_path;  // DIR/input/<study file>
   std::string study_text;
-  std::map<Unit, UnitResult> units;  // from replicates.csv and edges.csv
+  std::map<Unit, UnitResult> units;  // from replicates.csv, edges.csv, null_tests.csv
 };
 
-// Reads part.txt, input/<study file>, replicates.csv and edges.csv of a
+// Reads part.txt, input/<study file>, replicates.csv, edges.csv and null_tests.csv of a
 // finished share. Fails (naming the file and line) when one is missing or
 // malformed.
 Result<PartFolder> ReadPartFolder(const std::string& dir);

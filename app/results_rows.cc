@@ -81,6 +81,13 @@ const std::string& EdgeHeader() {
   return header;
 }
 
+const std::string& NullTestHeader() {
+  static const std::string header =
+      "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
+      "test_statistic,test_df,test_p_value";
+  return header;
+}
+
 const std::string& SummaryHeader() {
   static const std::string header =
       "cell,length,level,hidden_count,stationarity_target,learner,replicates,failed,"

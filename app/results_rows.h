@@ -5,6 +5,8 @@
 //   edges.csv       one audit row per replicate x learner x edge that was
 //                   reported or is solid in the truth
 //   summary.csv     one row per cell x learner (metrics::Summarize)
+//   null_tests.csv  tests whose null hypothesis holds in the truth, for the
+//                   p-value calibration plots of the report
 //
 // Numbers are written in the shortest form that reads back to the same
 // double; undefined values (NaN) are empty fields. Free text (messages) has
@@ -53,11 +55,13 @@ struct UnitResult {
   Unit unit;
   std::vector<ReplicateRow> rows;
   std::vector<std::string> edge_lines;  // edges.csv lines without the newline
+  std::vector<std::string> null_test_lines;  // null_tests.csv lines without the newline
 };
 
 const std::string& ReplicateHeader();
 const std::string& EdgeHeader();
 const std::string& SummaryHeader();
+const std::string& NullTestHeader();
 
 std::string FormatReplicateRow(const ReplicateRow& row);
 // Parses a line of replicates.csv; nullopt when it is malformed.

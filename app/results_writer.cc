@@ -140,6 +140,14 @@ std::string EdgesCsv(const std::map<Unit, UnitResult>& units) {
   return out;
 }
 
+std::string NullTestsCsv(const std::map<Unit, UnitResult>& units) {
+  std::string out = NullTestHeader() + "\n";
+  for (const auto& [unit, result] : units) {
+    for (const std::string& line : result.null_test_lines) out += line + "\n";
+  }
+  return out;
+}
+
 std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
                        const std::map<Unit, UnitResult>& units) {
   // rows[cell][learner], replicates in order (the map is sorted).
@@ -204,6 +212,7 @@ Status WriteResults(const std::string& dir, const StudySpec& study, const std::s
       {dir + "/study.json", StudyJson(study, cells, truths)},
       {dir + "/replicates.csv", ReplicatesCsv(units)},
       {dir + "/edges.csv", EdgesCsv(units)},
+      {dir + "/null_tests.csv", NullTestsCsv(units)},
       {dir + "/summary.csv", SummaryCsv(study, cells, units)}};
   for (const auto& [path, content] : files) {
     Status s = WriteFileAtomically(path, content);

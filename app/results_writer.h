@@ -1,6 +1,7 @@
 // The final files of a study folder, built from finished units.
 //
-//   replicates.csv, edges.csv, summary.csv   (columns: results/README.md)
+//   replicates.csv, edges.csv, summary.csv, null_tests.csv
+//                     (columns: results/README.md)
 //   study.json        the resolved study: version, seed, truths and their
 //                     classes, process, cells with their stream keys, learners
 //   truth-<t>.svg     each truth (hidden processes as grey dashed boxes)
@@ -35,6 +36,7 @@ metrics::CellSummary SummarizeCell(const StudySpec& study, const Cell& cell, int
 
 std::string ReplicatesCsv(const std::map<Unit, UnitResult>& units);
 std::string EdgesCsv(const std::map<Unit, UnitResult>& units);
+std::string NullTestsCsv(const std::map<Unit, UnitResult>& units);
 std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
                        const std::map<Unit, UnitResult>& units);
 std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths);

@@ -13,7 +13,7 @@
 namespace locind::app {
 namespace {
 
-constexpr char kHeaderPrefix[] = "locind finished units v1 ";
+constexpr char kHeaderPrefix[] = "locind finished units v2 ";
 
 std::vector<std::string> SplitTabs(const std::string& line) {
   std::vector<std::string> out;
@@ -42,34 +42,41 @@ bool WriteAll(int fd, const std::string& text) {
 std::string EncodeUnit(const UnitResult& u) {
   std::string line = "unit";
   for (const size_t v : {static_cast<size_t>(u.unit.cell), static_cast<size_t>(u.unit.replicate),
-                         u.rows.size(), u.edge_lines.size()}) {
+                         u.rows.size(), u.edge_lines.size(), u.null_test_lines.size()}) {
     line.append("\t").append(std::to_string(v));
   }
   for (const ReplicateRow& r : u.rows) line.append("\t").append(FormatReplicateRow(r));
   for (const std::string& e : u.edge_lines) line.append("\t").append(e);
+  for (const std::string& e : u.null_test_lines) line.append("\t").append(e);
   return line.append("\tend");
 }
 
 std::optional<UnitResult> DecodeUnit(const std::string& line) {
   const std::vector<std::string> f = SplitTabs(line);
-  if (f.size() < 6 || f[0] != "unit" || f.back() != "end") return std::nullopt;
+  if (f.size() < 7 || f[0] != "unit" || f.back() != "end") return std::nullopt;
   UnitResult u;
-  size_t rows = 0, edges = 0;
+  size_t rows = 0, edges = 0, nulls = 0;
   try {
     u.unit.cell = std::stoi(f[1]);
     u.unit.replicate = std::stoi(f[2]);
     rows = std::stoul(f[3]);
     edges = std::stoul(f[4]);
+    nulls = std::stoul(f[5]);
   } catch (const std::exception&) {
     return std::nullopt;
   }
-  if (f.size() != 6 + rows + edges) return std::nullopt;
+  // Sizes checked one at a time so that a corrupt count cannot overflow the sum.
+  const size_t fields = f.size() - 7;
+  if (rows > fields || edges > fields - rows || nulls != fields - rows - edges) return std::nullopt;
   for (size_t i = 0; i < rows; ++i) {
-    std::optional<ReplicateRow> row = ParseReplicateRow(f[5 + i]);
+    std::optional<ReplicateRow> row = ParseReplicateRow(f[6 + i]);
     if (!row) return std::nullopt;
     u.rows.push_back(std::move(*row));
   }
-  u.edge_lines.assign(f.begin() + 5 + rows, f.end() - 1);
+  const auto edges_begin = f.begin() + 6 + static_cast<std::ptrdiff_t>(rows);
+  const auto nulls_begin = edges_begin + static_cast<std::ptrdiff_t>(edges);
+  u.edge_lines.assign(edges_begin, nulls_begin);
+  u.null_test_lines.assign(nulls_begin, f.end() - 1);
   return u;
 }
 

@@ -13,6 +13,7 @@
 #include "learners/hawkes_lr_test.h"
 #include "learners/learner_registry.h"
 #include "learners/oracle_test.h"
+#include "metrics/pvalue_calibration.h"
 #include "metrics/replicate_score.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
@@ -198,10 +199,30 @@ void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_clas
   }
 }
 
-// Runs one learner on the data and scores it; fills `row` and the edge lines.
+// At most this many null-holding tests per replicate and learner go to
+// null_tests.csv (evenly spaced over the learner's log), so a method that
+// makes 10^5 tests does not swamp the file.
+constexpr size_t kNullTestsPerLearner = 200;
+
+void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_class,
+                      const learners::LearnResult& r, std::vector<std::string>& lines) {
+  if (r.test_kind == "oracle" || r.test_kind == "none") return;
+  const std::vector<std::string>& names = truth_class.projected.names();
+  for (const size_t i : metrics::NullHoldingTests(truth_class.projected, r.log, kNullTestsPerLearner)) {
+    const learners::TestRecord& t = r.log[i];
+    std::ostringstream o;
+    o << row.cell << "," << row.replicate << "," << row.truth << "," << row.learner << "," << row.test
+      << "," << Num(row.length) << "," << names[t.target] << "," << NameList(t.sources, names) << ","
+      << NameList(t.given, names) << "," << Num(t.statistic) << "," << Num(t.df) << ","
+      << Num(t.p_value);
+    lines.push_back(o.str());
+  }
+}
+
+// Runs one learner on the data and scores it; fills `row`, the edge lines
+// and the null-test lines.
 void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& truth,
-                const Cell& cell, Simulated& data, ReplicateRow& row,
-                std::vector<std::string>& edge_lines) {
+                const Cell& cell, Simulated& data, ReplicateRow& row, UnitResult& out) {
   const Clock::time_point start = Clock::now();
   const uint64_t draws_seed = graph::StreamSeed(
       {seed, cell.key, static_cast<uint64_t>(row.replicate), kPurposeTestDraws});
@@ -232,7 +253,8 @@ void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& tru
   const Clock::time_point scoring = Clock::now();
   const metrics::TruthClass& truth_class = *truth.truth_class;
   row.score = metrics::ScoreGraph(truth_class, result->graph);
-  AddEdgeLines(row, truth_class, *result, edge_lines);
+  AddEdgeLines(row, truth_class, *result, out.edge_lines);
+  AddNullTestLines(row, truth_class, *result, out.null_test_lines);
   row.timing_score_seconds = Since(scoring);
 }
 
@@ -282,7 +304,7 @@ UnitResult RunUnit(const StudySpec& study, const Cell& cell, const StudyTruths& 
       row.ok = false;
       row.message = failure;
     } else {
-      RunLearner(study.seed, spec, truth, cell, data, row, out.edge_lines);
+      RunLearner(study.seed, spec, truth, cell, data, row, out);
     }
     if (!row.ok) {
       row.score.power = NAN;

@@ -29,10 +29,13 @@ TEST_CASE("replicates.csv header") {
         "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds");
 }
 
-TEST_CASE("edges.csv and summary.csv headers") {
+TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
   CHECK(EdgeHeader() ==
         "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark,"
         "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision");
+  CHECK(NullTestHeader() ==
+        "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
+        "test_statistic,test_df,test_p_value");
   CHECK(SummaryHeader() ==
         "cell,length,level,hidden_count,stationarity_target,learner,replicates,failed,"
         "power,power_low,power_high,false_edge_rate,false_edge_rate_low,false_edge_rate_high,"
@@ -47,7 +50,7 @@ TEST_CASE("every documented column is in results/README.md") {
   std::stringstream doc;
   doc << in.rdbuf();
   REQUIRE_FALSE(doc.str().empty());
-  for (const std::string* header : {&ReplicateHeader(), &EdgeHeader(), &SummaryHeader()}) {
+  for (const std::string* header : {&ReplicateHeader(), &EdgeHeader(), &NullTestHeader(), &SummaryHeader()}) {
     std::stringstream s(*header);
     for (std::string column; std::getline(s, column, ',');) {
       // Per-group columns are documented once as <group>_<count>.
@@ -109,15 +112,21 @@ TEST_CASE("journal lines: a unit reads back; torn or malformed lines do not") {
   r.learner = "pairwise/oracle";
   u.rows = {r, r};
   u.edge_lines = {"2,5,t1,pairwise/oracle,a -> b,directed,solid,reported,,b,a,b,0,0,ok,dependent"};
+  u.null_test_lines = {"2,5,t1,pairwise/hawkes-lr,hawkes-lr,100,a,b,a,1.5,3,0.68", "2,5,t1,x,y,1,a,b,a,0,3,1"};
   const std::string line = EncodeUnit(u);
   const std::optional<UnitResult> back = DecodeUnit(line);
   REQUIRE(back.has_value());
   CHECK(back->unit == u.unit);
   CHECK(back->rows.size() == 2);
   CHECK(back->edge_lines == u.edge_lines);
+  CHECK(back->null_test_lines == u.null_test_lines);
   CHECK(EncodeUnit(*back) == line);
   CHECK_FALSE(DecodeUnit(line.substr(0, line.size() - 4)).has_value());  // no end mark
   CHECK_FALSE(DecodeUnit(line.substr(0, line.size() / 2)).has_value());
+  // Counts that do not add up to the fields (or would overflow) are refused.
+  CHECK_FALSE(DecodeUnit("unit\t2\t5\t0\t1\t0\tend").has_value());
+  CHECK_FALSE(DecodeUnit("unit\t2\t5\t18446744073709551615\t1\t0\tx\tend").has_value());
+  CHECK(DecodeUnit("unit\t2\t5\t0\t0\t1\tx\tend")->null_test_lines == std::vector<std::string>{"x"});
 }
 
 }  // namespace

@@ -95,7 +95,7 @@ std::string WithoutTimings(const fs::path& p) {
 // Same outputs apart from timing columns; returns the number of files compared.
 int CompareFolders(const fs::path& a, const fs::path& b) {
   int compared = 0;
-  for (const char* csv : {"replicates.csv", "edges.csv", "summary.csv"}) {
+  for (const char* csv : {"replicates.csv", "edges.csv", "null_tests.csv", "summary.csv"}) {
     REQUIRE(fs::exists(a / csv));
     REQUIRE(fs::exists(b / csv));
     CHECK_MESSAGE(WithoutTimings(a / csv) == WithoutTimings(b / csv), csv);
@@ -125,8 +125,8 @@ TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2
   REQUIRE(Run({study, "--threads", "1", "--out", s.Path("one")}, &text) == kExitOk);
   CHECK(text.find("results in " + s.Path("one")) != std::string::npos);
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("two")}) == kExitOk);
-  // 3 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
-  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 8);
+  // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
+  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 9);
 
   REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
   REQUIRE(Run({study, "--part", "1/2", "--out", s.Path("p1"), "--threads", "2"}) == kExitOk);
@@ -135,7 +135,7 @@ TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2
   CHECK(CountLines(s.dir / "p1" / "replicates.csv") == 1 + 12);
   std::ostringstream out, err;
   REQUIRE(RunMergeCommand({s.Path("p2"), s.Path("p1"), "--out", s.Path("merged")}, out, err) == kExitOk);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 8);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 9);
   CHECK_FALSE(fs::exists(s.dir / "merged" / "part.txt"));
 
   {  // merge refuses an incomplete set of shares
@@ -175,18 +175,18 @@ TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterr
   CHECK(committed < 20);  // 2 cells x 10 replicates: some were still missing
   CHECK_FALSE(fs::exists(s.dir / "killed" / "replicates.csv"));
   // A torn last line, as a kill in the middle of a write would leave.
-  std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t1,9,t2,1600";
+  std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t0\t1,9,t2,1600";
 
   std::string text;
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("killed")}, &text) == kExitOk);
   CHECK(text.find(std::to_string(committed) + " of 20 units already done") != std::string::npos);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 8);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
   CHECK(CountLines(journal) == 21);
 
   {  // running the finished study again only rewrites the same files
     REQUIRE(Run({study, "--out", s.Path("killed")}, &text) == kExitOk);
     CHECK(text.find("20 of 20 units already done") != std::string::npos);
-    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 8);
+    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
   }
 }
 
