@@ -28,5 +28,6 @@ int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std:
 int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 }  // namespace locind::app

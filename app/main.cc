@@ -21,6 +21,7 @@ const Command kCommands[] = {
     {"run", "run a study file: simulate, learn, score; resumable, --part K/N shares", locind::app::RunRunCommand},
     {"merge", "join the result folders of --part shares into one", locind::app::RunMergeCommand},
     {"plan", "smallest observation length reaching a target power and false-edge rate", locind::app::RunPlanCommand},
+    {"report", "HTML report with figures of a finished result folder", locind::app::RunReportCommand},
 };
 
 void PrintUsage(std::ostream& out) {

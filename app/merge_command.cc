@@ -11,6 +11,7 @@
 #include <set>
 
 #include "app/command.h"
+#include "app/report.h"
 #include "app/results_merge.h"
 #include "app/results_table.h"
 #include "app/results_writer.h"
@@ -94,7 +95,11 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   const std::string dir = out_dir.empty() ? "results/" + study.name : out_dir;
   const Status written = WriteResults(dir, study, parts.front().study_text, cells, truths, units, Part{});
   if (!written.ok()) throw MergeError{written.message(), kExitFailure};
-  out << "merged " << parts.size() << " parts into " << dir << "/\n" << SummaryTable(study, cells, units);
+  out << "merged " << parts.size() << " parts into " << dir << "/\n";
+  const Result<int> report = WriteReportOfResults(dir, study, cells, truths);
+  if (report.ok()) out << "report in " << dir << "/report.html\n";
+  if (!report.ok()) err << "locind merge: report not written: " << report.status().message() << "\n";
+  out << SummaryTable(study, cells, units);
   return kExitOk;
 }
 

@@ -58,6 +58,20 @@ Status ReadUnitLines(const std::string& dir, const std::string& file, const std:
 
 }  // namespace
 
+Result<SavedStudy> ReadSavedStudy(const std::string& dir) {
+  std::vector<std::string> inputs;
+  std::error_code ec;
+  for (const auto& entry : std::filesystem::directory_iterator(dir + "/input", ec)) {
+    inputs.push_back(entry.path().string());
+  }
+  if (ec || inputs.size() != 1) {
+    return Status::Error(dir + "/input: expected exactly one study file (written by locind run)");
+  }
+  Result<std::string> text = ReadText(inputs[0]);
+  if (!text.ok()) return text.status();
+  return SavedStudy{inputs[0], *text};
+}
+
 Result<PartFolder> ReadPartFolder(const std::string& dir) {
   PartFolder p;
   p.dir = dir;
@@ -68,18 +82,10 @@ Result<PartFolder> ReadPartFolder(const std::string& dir) {
   const std::optional<Part> parsed = ParsePart(text);
   if (!parsed) return Status::Error(dir + "/part.txt:1:1: part: expected K/N");
   p.part = *parsed;
-  std::vector<std::string> inputs;
-  std::error_code ec;
-  for (const auto& entry : std::filesystem::directory_iterator(dir + "/input", ec)) {
-    inputs.push_back(entry.path().string());
-  }
-  if (ec || inputs.size() != 1) {
-    return Status::Error(dir + "/input: expected exactly one study file (written by locind run)");
-  }
-  p.study_path = inputs[0];
-  Result<std::string> study = ReadText(p.study_path);
-  if (!study.ok()) return study.status();
-  p.study_text = *study;
+  Result<SavedStudy> saved = ReadSavedStudy(dir);
+  if (!saved.ok()) return saved.status();
+  p.study_path = saved->path;
+  p.study_text = saved->text;
 
   Result<std::string> replicates = ReadText(dir + "/replicates.csv");
   if (!replicates.ok()) return replicates.status();

@@ -18,6 +18,14 @@ struct PartFolder {
   std::map<Unit, UnitResult> units;  // from replicates.csv, edges.csv, null_tests.csv
 };
 
+// The study file a run saved in DIR/input/ (its path and text). Fails when
+// there is not exactly one file there or it cannot be read.
+struct SavedStudy {
+  std::string path;
+  std::string text;
+};
+Result<SavedStudy> ReadSavedStudy(const std::string& dir);
+
 // Reads part.txt, input/<study file>, replicates.csv, edges.csv and null_tests.csv of a
 // finished share. Fails (naming the file and line) when one is missing or
 // malformed.

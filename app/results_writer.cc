@@ -5,8 +5,8 @@
 
 #include "app/atomic_file.h"
 #include "app/graph_json.h"
+#include "app/report_drawings.h"
 #include "app/svg_render.h"
-#include "graph/dot_format.h"
 
 namespace locind::app {
 namespace {
@@ -90,22 +90,12 @@ std::string TruthsJson(const StudyTruths& truths) {
 
 Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
   for (const auto& [id, t] : truths.all()) {
-    graph::DotOptions truth_style;
-    truth_style.title = "truth " + t.label;
-    truth_style.hidden = t.truth.hidden;
-    Result<std::string> svg = RenderSvg(graph::ToDot(t.truth.graph, truth_style));
+    Result<std::string> svg = RenderSvg(TruthDot(t));
     if (!svg.ok()) return svg.status();
     Status s = WriteFileAtomically(dir + "/truth-" + t.label + ".svg", *svg);
-    if (!s.ok() || !t.truth_class.ok()) {
-      if (!s.ok()) return s;
-      continue;
-    }
-    graph::DotOptions class_style;
-    class_style.title = "equivalence graph " + t.label;
-    for (size_t i = 0; i < t.truth_class->edges.size(); ++i) {
-      if (t.truth_class->dashed[i]) class_style.dashed.push_back(t.truth_class->edges[i]);
-    }
-    svg = RenderSvg(graph::ToDot(t.truth_class->maximal, class_style));
+    if (!s.ok()) return s;
+    if (!t.truth_class.ok()) continue;
+    svg = RenderSvg(ClassDot(t));
     if (!svg.ok()) return svg.status();
     s = WriteFileAtomically(dir + "/class-" + t.label + ".svg", *svg);
     if (!s.ok()) return s;

@@ -17,6 +17,7 @@
 #include "app/command.h"
 #include "app/command_guard.h"
 #include "app/progress.h"
+#include "app/report.h"
 #include "app/results_table.h"
 #include "app/results_writer.h"
 #include "app/runner.h"
@@ -118,8 +119,15 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     err << "locind run: " << written.message() << "\n";
     return kExitFailure;
   }
-  out << "results in " << dir << "/ (replicates.csv, edges.csv, summary.csv, study.json, drawings)\n";
-  if (o.part.parts > 1) out << "this is part " << o.part.Text() << "; join the parts with locind merge\n";
+  out << "results in " << dir << "/ (replicates.csv, edges.csv, summary.csv, null_tests.csv, study.json, drawings)\n";
+  if (o.part.parts > 1) {
+    out << "this is part " << o.part.Text() << "; join the parts with locind merge (it writes the report)\n";
+  } else {
+    // The results stand without the report: a drawing problem is a warning.
+    const Result<int> report = WriteReportOfResults(dir, study, cells, truths);
+    if (report.ok()) out << "report in " << dir << "/report.html\n";
+    if (!report.ok()) err << "locind run: report not written: " << report.status().message() << "\n";
+  }
   out << SummaryTable(study, cells, finished);
   return kExitOk;
 }

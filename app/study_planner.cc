@@ -166,4 +166,21 @@ std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets&
   return out.str();
 }
 
+const std::string& PlanHeader() {
+  static const std::string header =
+      "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
+      "conservative_length,cap";
+  return header;
+}
+
+std::string PlanCsv(const std::vector<LearnerPlan>& plans, const PlanTargets& targets) {
+  std::string out = PlanHeader() + "\n";
+  for (const LearnerPlan& p : plans) {
+    out += CleanText(p.learner) + "," + Num(targets.power) + "," + Num(targets.false_edges) + "," +
+           (p.reached ? "yes" : "no") + "," + (p.reached ? Num(p.length) : "") + "," + Num(p.optimistic) +
+           "," + Num(p.conservative) + "," + Num(p.cap) + "\n";
+  }
+  return out;
+}
+
 }  // namespace locind::app

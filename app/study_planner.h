@@ -62,4 +62,9 @@ std::vector<LearnerPlan> PlanLengths(const StudySpec& study, const PlanTargets& 
 // plain sentence for each that did not.
 std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets& targets);
 
+// plan.csv (header and one line per learner; columns in results/README.md),
+// which `locind report` reads to draw the targets and planned lengths.
+const std::string& PlanHeader();
+std::string PlanCsv(const std::vector<LearnerPlan>& plans, const PlanTargets& targets);
+
 }  // namespace locind::app

@@ -23,6 +23,7 @@ void WriteEdge(std::ostream& out, const Dmg& g, const Edge& e, const DotOptions&
       << "\"";
   if (bidirected) out << ", dir=both, arrowtail=normal";
   if (style != nullptr) out << ", style=" << style;
+  if (Listed(o.bold, e)) out << ", penwidth=2.5";
   out << "];\n";
 }
 

@@ -22,6 +22,7 @@ struct DotOptions {
   std::vector<Edge> dashed;              // edges drawn dashed
   std::map<Edge, std::string> color;     // per-edge colour override ("#rrggbb")
   std::vector<Edge> extra;               // edges not in the graph, drawn dotted
+  std::vector<Edge> bold;                // edges drawn thicker (graph or extra)
 };
 
 std::string ToDot(const Dmg& g, const DotOptions& options = {});
