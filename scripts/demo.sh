@@ -24,4 +24,9 @@ study_out=results/pumping_station
 echo "== A simulation study ($study, an invented pumping station): 4 learners x 3 observation lengths"
 rm -rf "$study_out"   # a fresh run (an existing folder would be resumed)
 "$bin" run "$study" --threads 2 --out "$study_out"
-echo "== Study results in $study_out/: summary.csv (the table above), replicates.csv, edges.csv, study.json, truth and class drawings"
+echo "== The length each learner needs for power 0.8 with at most 5% false edges (about a minute)"
+"$bin" plan "$study" --power 0.8 --false-edges 0.05 --threads 2 --out "$study_out"
+echo "== The report, redrawn with the plan's targets"
+"$bin" report "$study_out"
+echo "== Study results in $study_out/: report.html (open it in a browser; figures also in figures/),"
+echo "   summary.csv (the table above), replicates.csv, edges.csv, null_tests.csv, plan.csv, study.json"
