@@ -18,8 +18,10 @@ constexpr const char* kColours[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7",
                                     "#E69F00", "#56B4E9", "#000000"};
 constexpr int kMarkers[] = {7, 5, 9, 11, 13, 6, 4, 8, 10, 12};
 
+// Two line plots or three QQ plots fit side by side in the page.
+constexpr char kLineTerminal[] = "set terminal svg size 500,380 fixed font 'Helvetica,11' background rgb 'white'\n";
+constexpr char kQqTerminal[] = "set terminal svg size 330,370 fixed font 'Helvetica,10' background rgb 'white'\n";
 constexpr char kHeader[] =
-    "set terminal svg size 720,430 fixed font 'Helvetica,12' background rgb 'white'\n"
     "set encoding utf8\n"
     "set border 3 lw 1 lc rgb '#555555'\n"
     "set xtics nomirror\nset ytics nomirror\n"
@@ -80,7 +82,7 @@ std::string StyleColour(int style) { return kColours[style % static_cast<int>(st
 
 std::string LinePlotScript(const LinePlot& plot) {
   std::ostringstream o;
-  o << kHeader << "set title " << Quote(plot.title) << " noenhanced\n"
+  o << kLineTerminal << kHeader << "set title " << Quote(plot.title) << " noenhanced\n"
     << "set xlabel " << Quote(plot.x_label) << "\nset ylabel " << Quote(plot.y_label) << "\n";
   const std::vector<double> xs = Lengths(plot);
   bool log_x = false;
@@ -133,7 +135,7 @@ std::string LinePlotScript(const LinePlot& plot) {
 
 std::string QqPlotScript(const QqPlot& plot) {
   std::ostringstream o;
-  o << kHeader << "set size ratio -1\nset key inside right bottom\n"
+  o << kQqTerminal << kHeader << "set size ratio -1\nset key inside right bottom\n"
     << "set title " << Quote(plot.title) << " noenhanced\n"
     << "set xlabel 'expected p-value (uniform quantile)'\nset ylabel 'observed p-value'\n"
     << "set xrange [0:1]\nset yrange [0:1]\n";

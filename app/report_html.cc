@@ -27,8 +27,9 @@ constexpr char kStyle[] =
     "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding:.2em .5em;"
     "text-align:left;vertical-align:top}th{background:#f2f2f2}td.n{text-align:right;"
     "font-variant-numeric:tabular-nums}"
-    "figure{margin:1em 0;display:inline-block;vertical-align:top;max-width:100%}"
-    "figure svg{max-width:100%;height:auto}figcaption{font-size:.9em;color:#444;max-width:720px}"
+    "figure{margin:1em 1.5em 1em 0;display:inline-table;vertical-align:top}"
+    "figure svg{max-width:calc(100vw - 4em);height:auto}figcaption{display:table-caption;caption-side:bottom;"
+    "font-size:.9em;color:#444}"
     ".caution{border-left:4px solid #D55E00;background:#fbf3ee;padding:.6em 1em}";
 
 void WriteStudyTable(const ReportPage& page, std::ostream& out) {

@@ -136,6 +136,26 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   CHECK(html.find("statistical hypotheses") != std::string::npos);  // the caution
 }
 
+TEST_CASE("a folder that is not a finished run is refused with exit code 2 and no report") {
+  const fs::path dir = fs::temp_directory_path() / "locind_report_test_bad";
+  fs::remove_all(dir);
+  fs::create_directories(dir / "input");
+  testing::Outcome r = testing::RunHandler(RunReportCommand, {dir.string()});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == "locind report: " + (dir / "input").string() +
+                     ": expected exactly one study file (written by locind run)\n");
+  std::ofstream(dir / "input" / "study.yaml") << kStudy;
+  r = testing::RunHandler(RunReportCommand, {dir.string()});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == "locind report: " + (dir / "summary.csv").string() +
+                     ": cannot open the file (is this the folder of a finished locind run?)\n");
+  CHECK_FALSE(fs::exists(dir / "report.html"));
+  r = testing::RunHandler(RunReportCommand, {});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.find("usage: locind report DIR") != std::string::npos);
+  fs::remove_all(dir);
+}
+
 // Chromium checks the page from the inside: a copy of the page gets a
 // script (first thing in <head>) that counts load errors and measures each
 // figure once the page has loaded, and writes the result into the DOM that
