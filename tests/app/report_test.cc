@@ -180,7 +180,7 @@ TEST_CASE("headless Chromium loads the report with no errors and every figure dr
 
   const std::vector<std::string> flags = {
       "chromium", "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-      "--disable-background-networking", "--disable-component-update", "--disable-sync",
+      "--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-dev-shm-usage",
       "--user-data-dir=" + (dir / "chromium-profile").string(), "--virtual-time-budget=5000"};
   std::vector<std::string> dump = flags;
   dump.push_back("--dump-dom");
