@@ -41,4 +41,14 @@ inline graph::BitGraph RandomMixedGraph(int nodes, double p, double q, bool loop
   return *graph::ToBitGraph(graph::RandomTruthGraph(o, random).graph);
 }
 
+// a -> c -> b with a loop on every node (indices a = 0, c = 1, b = 2): b is
+// separated from a given {b, c}, not given {b}.
+inline graph::Dmg ChainWithLoops() {
+  graph::Dmg g({"a", "c", "b"});
+  g.AddDirected(0, 1);
+  g.AddDirected(1, 2);
+  for (int v = 0; v < 3; ++v) g.AddDirected(v, v);
+  return g;
+}
+
 }  // namespace locind::testing

@@ -4,20 +4,15 @@
 
 #include <doctest/doctest.h>
 
+#include "tests/graph/graph_fixtures.h"
+
 #include "graph/dmg.h"
 #include "graph/truth_graph.h"
 
 namespace locind::learners {
 namespace {
 
-graph::Dmg Chain() {
-  // a -> c -> b, with loops on every node.
-  graph::Dmg g({"a", "c", "b"});
-  g.AddDirected(0, 1);
-  g.AddDirected(1, 2);
-  for (int v = 0; v < 3; ++v) g.AddDirected(v, v);
-  return g;
-}
+graph::Dmg Chain() { return testing::ChainWithLoops(); }
 
 TEST_CASE("a chain is blocked by conditioning on its middle node") {
   OracleTest oracle(Chain());

@@ -5,6 +5,8 @@
 
 #include <cmath>
 
+#include "tests/graph/graph_fixtures.h"
+
 namespace locind::metrics {
 namespace {
 
@@ -19,14 +21,7 @@ learners::TestRecord Record(int target, std::vector<int> sources, std::vector<in
   return r;
 }
 
-graph::Dmg Chain() {
-  // a -> c -> b with loops: b is separated from a given {b, c}, not given {b}.
-  graph::Dmg g({"a", "c", "b"});
-  g.AddDirected(0, 1);
-  g.AddDirected(1, 2);
-  for (int v = 0; v < 3; ++v) g.AddDirected(v, v);
-  return g;
-}
+graph::Dmg Chain() { return testing::ChainWithLoops(); }
 
 TEST_CASE("only ok tests whose null holds in the graph are kept, once per query") {
   const std::vector<learners::TestRecord> log = {
