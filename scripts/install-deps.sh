@@ -8,6 +8,7 @@ packages=(
   libeigen3-dev libboost-random-dev libboost-program-options-dev libboost-math-dev
   libyaml-cpp-dev libbenchmark-dev doctest-dev
   graphviz libgraphviz-dev gnuplot-nox
+  libopenmpi-dev openmpi-bin
   python3 python3-networkx python3-scipy python3-numpy
 )
 
