@@ -199,6 +199,12 @@ std::vector<Unit> TakeFront(std::deque<Unit>& queue, int count) {
   return units;
 }
 
+UnitResult DecodeResult(const std::string& text, int from) {
+  std::optional<UnitResult> unit = DecodeUnit(text);
+  if (!unit) throw std::runtime_error("rank " + std::to_string(from) + " sent a malformed result");
+  return std::move(*unit);
+}
+
 // A rank's side once the lead has started it: runs units until told to stop.
 void ServeUnits(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths,
                 int threads, std::istream& start) {
@@ -317,20 +323,17 @@ void RankGroup::RunUnits(const StudySpec& study, const std::vector<Cell>& cells,
     for (UnitResult& r : pool.Take()) accept(std::move(r));
     while (const std::optional<MPI_Status> status = Waiting(MPI_ANY_SOURCE)) {
       const std::string text = Receive(*status);
-      const std::string from = "rank " + std::to_string(status->MPI_SOURCE);
+      const int from = status->MPI_SOURCE;
       if (status->MPI_TAG == kTagReady) {
         if (text != hash) {
-          throw std::runtime_error(from + " read another study from its copy of the study file, or "
-                                   "could not read it");
+          throw std::runtime_error("rank " + std::to_string(from) + " read another study from its "
+                                   "copy of the study file, or could not read it");
         }
-        const std::string mode = dispatch_ ? "dispatch" : "static ";
-        Send(mode + EncodeUnits(shares[status->MPI_SOURCE]), status->MPI_SOURCE, kTagStart);
+        Send((dispatch_ ? "dispatch" : "static ") + EncodeUnits(shares[from]), from, kTagStart);
       } else if (status->MPI_TAG == kTagRequest) {
-        Send(EncodeUnits(TakeFront(queue, std::stoi(text))), status->MPI_SOURCE, kTagUnits);
+        Send(EncodeUnits(TakeFront(queue, std::stoi(text))), from, kTagUnits);
       } else if (status->MPI_TAG == kTagResult) {
-        std::optional<UnitResult> unit = DecodeUnit(text);
-        if (!unit) throw std::runtime_error(from + " sent a malformed result");
-        accept(std::move(*unit));
+        accept(DecodeResult(text, from));
       }
     }
   }

@@ -23,4 +23,4 @@ ctest --test-dir build/asan -j2 --output-on-failure -LE calibration
 
 echo "== MPI build (Release, LOCIND_MPI=ON): locind run under mpirun"
 bash scripts/build.sh mpi locind runner_mpi_test
-ctest --test-dir build/mpi -j2 --output-on-failure -L mpi
+ctest --test-dir build/mpi --output-on-failure -L mpi   # one at a time: each starts 2-3 ranks

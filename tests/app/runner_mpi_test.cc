@@ -44,6 +44,8 @@ pid_t StartMpirun(int ranks, const std::vector<std::string>& run_args, const std
   const pid_t pid = ::fork();
   if (pid == 0) {
     const int fd = ::open(log.c_str(), O_CREAT | O_WRONLY | O_TRUNC, 0644);
+    const int nothing = ::open("/dev/null", O_RDONLY);  // mpirun forwards stdin to rank 0
+    ::dup2(nothing, STDIN_FILENO);
     ::dup2(fd, STDOUT_FILENO);
     ::dup2(fd, STDERR_FILENO);
     ::execvp("mpirun", argv.data());
