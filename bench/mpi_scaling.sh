@@ -57,9 +57,15 @@ for ((r = 1; r <= repeats; ++r)); do
     if [ "$kind" = one ] && [ "$r" = 1 ]; then prepare="$(to_start_line "$t0" "$work/one.log")"; fi
   done
 done
-# A finished folder run again: the same start, every unit read back from the
-# journal, then only the final files written.
-read -r t0 t1 < <(timed "$work/again.log" "$bin" run "$work/study.yaml" --out "$work/one")
+# The lead's serial work per unit, on many cheap units (length 100, 400
+# replicates): a 2-rank run, then the finished folder run again (the same
+# start, every unit read back from the journal, then only the final files).
+sed -e 's/^  lengths: .*/  lengths: [100]/' -e 's/^  replicates: .*/  replicates: 400/' \
+  configs/demo.yaml > "$work/many.yaml"
+many=400
+read -r t0 t1 < <(timed "$work/many.log" "${mpirun[@]}" -np 2 "$bin" run "$work/many.yaml" --out "$work/many")
+many_wall="$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f", b - a }')"
+read -r t0 t1 < <(timed "$work/again.log" "$bin" run "$work/many.yaml" --out "$work/many")
 again_start="$(to_start_line "$t0" "$work/again.log")"
 again_total="$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f", b - a }')"
 echo "load after:  $(uptime)"
@@ -75,10 +81,16 @@ awk -v u="$units" -v one="$one" -v d="$dispatch" -v s="$static" 'BEGIN {
   printf "replicates_per_s_2_ranks_dispatch %.3f  speed-up %.3f  efficiency %.3f\n", u / d, one / d, one / d / 2
   printf "replicates_per_s_2_ranks_static   %.3f  speed-up %.3f  efficiency %.3f\n", u / s, one / s, one / s / 2
 }'
-awk -v p="$prepare" -v as="$again_start" -v at="$again_total" -v u="$units" -v one="$one" 'BEGIN {
-  printf "serial: study + truths %.3f s; read back %d units %.3f s (%.2f ms each); final files %.3f s\n",
-    p, u, as - p, 1000 * (as - p) / u, at - as
-  printf "serial share of the 1-process run: %.4f\n", (p + at - as) / one
+unit_seconds="$(awk -F, 'NR == 1 { for (i = 1; i <= NF; ++i) c[$i] = i; next }
+  { t += $c["timing_learn_seconds"] + $c["timing_score_seconds"]
+    if (!seen[$c["cell"] "," $c["replicate"]]++) t += $c["timing_simulate_seconds"] }
+  END { printf "%.5f", t / length(seen) }' "$work/many/replicates.csv")"
+awk -v p="$prepare" -v as="$again_start" -v at="$again_total" -v u="$many" -v c="$unit_seconds" \
+    -v w="$many_wall" 'BEGIN {
+  printf "serial: study + truths %.3f s (demo: 2 truths, 5 observed nodes)\n", p
+  printf "many cheap units: %d units of %.1f ms each, 2 ranks dispatch %.1f units/s\n", u, 1000 * c, u / w
+  printf "lead per unit: read back + decode %.3f ms, final files %.3f ms (ratios to a unit: %.4f, %.4f)\n",
+    1000 * (as - p) / u, 1000 * (at - as) / u, (as - p) / u / c, (at - as) / u / c
 }'
 echo "balance replayed from the 1-process run's unit times (efficiency, 1 = perfect):"
 /usr/bin/python3 bench/mpi_balance.py "$work/one/replicates.csv" 2 3 4 8
