@@ -52,8 +52,9 @@ for ((r = 1; r <= repeats; ++r)); do
       dispatch) cmd=("${mpirun[@]}" -np 2 "$bin" run "$work/study.yaml" --out "$work/$kind") ;;
       static) cmd=("${mpirun[@]}" -np 2 "$bin" run "$work/study.yaml" --out "$work/$kind" --mpi-assign static) ;;
     esac
+    load="$(cut -d' ' -f1 /proc/loadavg)"
     read -r t0 t1 < <(timed "$work/$kind.log" "${cmd[@]}")
-    wall[$kind]+="$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f ", b - a }')"
+    wall[$kind]+="$(awk -v a="$t0" -v b="$t1" -v l="$load" 'BEGIN { printf "%.3f (load %s) ", b - a, l }')"
     if [ "$kind" = one ] && [ "$r" = 1 ]; then prepare="$(to_start_line "$t0" "$work/one.log")"; fi
   done
 done
@@ -68,9 +69,12 @@ many_wall="$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f", b - a }')"
 read -r t0 t1 < <(timed "$work/again.log" "$bin" run "$work/many.yaml" --out "$work/many")
 again_start="$(to_start_line "$t0" "$work/again.log")"
 again_total="$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f", b - a }')"
+# The same under mpirun -np 2: the difference is the launch (start, wire-up, finalize).
+read -r t0 t1 < <(timed "$work/again2.log" "${mpirun[@]}" -np 2 "$bin" run "$work/many.yaml" --out "$work/many")
+launch="$(awk -v a="$t0" -v b="$t1" -v one="$again_total" 'BEGIN { printf "%.3f", b - a - one }')"
 echo "load after:  $(uptime)"
 
-median() { tr ' ' '\n' | grep . | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
+median() { tr ' ' '\n' | grep -v '[()]' | grep . | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
 one="$(echo "${wall[one]}" | median)"
 dispatch="$(echo "${wall[dispatch]}" | median)"
 static="$(echo "${wall[static]}" | median)"
@@ -92,6 +96,7 @@ awk -v p="$prepare" -v as="$again_start" -v at="$again_total" -v u="$many" -v c=
   printf "lead per unit: read back + decode %.3f ms, final files %.3f ms (ratios to a unit: %.4f, %.4f)\n",
     1000 * (as - p) / u, 1000 * (at - as) / u, (as - p) / u / c, (at - as) / u / c
 }'
+echo "launch of 2 ranks (mpirun start, MPI wire-up and finalize): $launch s"
 echo "balance replayed from the 1-process run's unit times (efficiency, 1 = perfect):"
 /usr/bin/python3 bench/mpi_balance.py "$work/one/replicates.csv" 2 3 4 8
 echo "the same cells resampled to 200 and 2,000 replicates per cell:"
