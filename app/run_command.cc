@@ -1,13 +1,14 @@
 // locind run: run a study.
 //
-//   run STUDY.yaml [--threads N] [--out DIR] [--part K/N]
+//   run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--mpi-assign dispatch|static]
 //
 // Validates the study (every problem on stderr as FILE:LINE:COLUMN: FIELD:
 // message, exit 2, nothing written), draws the truths and computes their
 // classes, then runs the units of the part that are not yet in DIR's journal
 // (app/runner_journal.h) on N threads, and finally writes the result files
 // (app/results_writer.h) and prints the summary table. DIR defaults to
-// results/<study name>.
+// results/<study name>. Under mpirun, the units run on every rank and rank 0
+// does the rest (app/runner_mpi.h).
 #include <boost/program_options.hpp>
 #include <cstdio>
 #include <fstream>
@@ -22,6 +23,7 @@
 #include "app/results_writer.h"
 #include "app/runner.h"
 #include "app/runner_journal.h"
+#include "app/runner_mpi.h"
 #include "app/study_file.h"
 
 namespace locind::app {
@@ -34,6 +36,7 @@ struct RunOptions {
   std::string out;
   int threads = 1;
   Part part;
+  std::string assign;  // --mpi-assign
 };
 
 RunOptions ParseOptions(const std::vector<std::string>& args) {
@@ -42,7 +45,8 @@ RunOptions ParseOptions(const std::vector<std::string>& args) {
   po::options_description d("locind run");
   d.add_options()("study", po::value(&o.study), "study file")(
       "threads", po::value(&o.threads), "worker threads")("out", po::value(&o.out), "output folder")(
-      "part", po::value(&part), "run share K of N");
+      "part", po::value(&part), "run share K of N")(
+      "mpi-assign", po::value(&o.assign), "how ranks get units");
   po::positional_options_description positional;
   positional.add("study", 1);
   po::variables_map vm;
@@ -71,6 +75,8 @@ std::string Hex(uint64_t v) {
 
 int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   const RunOptions o = ParseOptions(args);
+  RankGroup ranks(o.assign);
+  if (!ranks.lead()) return ranks.Serve(o.study, o.threads);
   StudyOrErrors read = ReadStudyFile(o.study);
   if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
     for (const InputError& e : *errors) err << e.ToString() << "\n";
@@ -97,11 +103,12 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   err << "locind run: " << study.name << ", " << cells.size() << " cells x " << study.grid.replicates
       << " replicates x " << study.learners.size() << " learners";
   if (o.part.parts > 1) err << ", part " << o.part.Text();
+  if (ranks.size() > 1) err << ", " << ranks.Describe(o.threads);
   err << "; " << mine.size() - pending.size() << " of " << mine.size() << " units already done\n";
   Progress progress(err, StderrIsTerminal() && &err == &std::cerr, static_cast<int64_t>(mine.size()),
                     static_cast<int64_t>(mine.size() - pending.size()), "units");
   Status appended;
-  RunUnits(study, cells, truths, pending, o.threads,
+  ranks.RunUnits(study, cells, truths, pending, o.threads,
            [&](UnitResult r) {
              Status s = j.Append(std::move(r));
              if (!s.ok() && appended.ok()) appended = s;
@@ -140,6 +147,9 @@ int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::
            "  --threads N   worker threads (default 1)\n"
            "  --out DIR     result folder (default results/<study name>); an existing one is resumed\n"
            "  --part K/N    run share K of N (join the shares with locind merge)\n"
+           "  --mpi-assign dispatch|static\n"
+           "                under mpirun: units handed out by rank 0 on request, longest first\n"
+           "                (default), or fixed shares; needs a build with LOCIND_MPI\n"
            "Study files: configs/README.md; output columns: results/README.md\n";
     return kExitOk;
   }

@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# Configures and builds one build tree: scripts/build.sh release|asan [targets...]
+# Configures and builds one build tree: scripts/build.sh release|asan|mpi [targets...]
 set -euo pipefail
 cd "$(dirname "$0")/.."
 kind="${1:-release}"
@@ -7,7 +7,8 @@ shift || true
 case "$kind" in
   release) flags=(-DCMAKE_BUILD_TYPE=Release) ;;
   asan) flags=(-DCMAKE_BUILD_TYPE=RelWithDebInfo -DLOCIND_SANITIZE=ON -DLOCIND_BUILD_BENCH=OFF) ;;
-  *) echo "usage: scripts/build.sh release|asan [targets...]" >&2; exit 2 ;;
+  mpi) flags=(-DCMAKE_BUILD_TYPE=Release -DLOCIND_MPI=ON -DLOCIND_BUILD_BENCH=OFF) ;;
+  *) echo "usage: scripts/build.sh release|asan|mpi [targets...]" >&2; exit 2 ;;
 esac
 cmake -S . -B "build/$kind" -G Ninja "${flags[@]}" >/dev/null
 if (($# > 0)); then

@@ -9,6 +9,7 @@ packages=(
   libyaml-cpp-dev libbenchmark-dev doctest-dev
   graphviz libgraphviz-dev gnuplot-nox
   chromium fonts-dejavu-core
+  libopenmpi-dev openmpi-bin
   python3 python3-networkx python3-scipy python3-numpy
 )
 

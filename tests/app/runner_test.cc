@@ -17,110 +17,19 @@
 #include "app/command.h"
 #include "app/input_error.h"
 #include "app/runner_journal.h"
+#include "app/runner_mpi.h"
+#include "tests/app/run_folders.h"
 
 namespace locind::app {
 namespace {
 
 namespace fs = std::filesystem;
 
-// Three observed alarm streams and one hidden driver; oracle and Hawkes tests.
-const char kStudy[] =
-    "name: tiny\n"
-    "seed: 11\n"
-    "truth:\n"
-    "  nodes: [a, b, c, h]\n"
-    "  edges: [a -> b, b -> c, h -> a, h -> c, a -> a, h -> h]\n"
-    "  hidden: [h]\n"
-    "  truths: 2\n"
-    "process:\n"
-    "  events: {baseline: [0.3, 0.5], weight: [0.2, 0.5], decay: 2, spectral_radius: 0.5, burn_in: 20}\n"
-    "grid:\n"
-    "  lengths: [150, 300]\n"
-    "  replicates: 4\n"
-    "learners:\n"
-    "  - {method: pairwise, test: hawkes-lr}\n"
-    "  - {method: screen, test: hawkes-lr}\n"
-    "  - {method: maximal-search, test: oracle}\n";
-
-struct Scratch {
-  fs::path dir;
-  explicit Scratch(const std::string& name) : dir(fs::temp_directory_path() / name) {
-    fs::remove_all(dir);
-    fs::create_directories(dir);
-  }
-  ~Scratch() { fs::remove_all(dir); }
-  std::string Write(const std::string& file, const std::string& text) const {
-    std::ofstream(dir / file) << text;
-    return (dir / file).string();
-  }
-  std::string Path(const std::string& sub) const { return (dir / sub).string(); }
-};
-
-int Run(const std::vector<std::string>& args, std::string* out_text = nullptr) {
-  std::ostringstream out, err;
-  const int code = RunRunCommand(args, out, err);
-  if (out_text) *out_text = out.str() + err.str();
-  return code;
-}
-
-std::string ReadAll(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-// The file with every column whose header starts with "timing_" removed.
-std::string WithoutTimings(const fs::path& p) {
-  std::istringstream in(ReadAll(p));
-  std::string line, out;
-  std::vector<bool> keep;
-  while (std::getline(in, line)) {
-    std::vector<std::string> fields;
-    std::stringstream s(line);
-    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
-    if (!line.empty() && line.back() == ',') fields.push_back("");
-    if (keep.empty()) {
-      for (const std::string& f : fields) keep.push_back(f.rfind("timing_", 0) != 0);
-    }
-    REQUIRE(fields.size() == keep.size());
-    for (size_t i = 0; i < fields.size(); ++i) {
-      if (keep[i]) out += fields[i] + ",";
-    }
-    out += "\n";
-  }
-  return out;
-}
-
-// Same outputs apart from timing columns; returns the number of files compared.
-int CompareFolders(const fs::path& a, const fs::path& b) {
-  int compared = 0;
-  for (const char* csv : {"replicates.csv", "edges.csv", "null_tests.csv", "summary.csv"}) {
-    REQUIRE(fs::exists(a / csv));
-    REQUIRE(fs::exists(b / csv));
-    CHECK_MESSAGE(WithoutTimings(a / csv) == WithoutTimings(b / csv), csv);
-    ++compared;
-  }
-  for (const auto& entry : fs::directory_iterator(a)) {
-    const std::string name = entry.path().filename().string();
-    if (name == "study.json" || entry.path().extension() == ".svg") {
-      CHECK_MESSAGE(ReadAll(entry.path()) == ReadAll(b / name), name);
-      ++compared;
-    }
-  }
-  return compared;
-}
-
-int CountLines(const fs::path& p) {
-  std::ifstream in(p);
-  int n = 0;
-  for (std::string line; std::getline(in, line);) ++n;
-  return n;
-}
+using namespace locind::testing;
 
 TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2/2 merged") {
   Scratch s("locind_runner_test_threads");
-  const std::string study = s.Write("tiny.yaml", kStudy);
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
   std::string text;
   REQUIRE(Run({study, "--threads", "1", "--out", s.Path("one")}, &text) == kExitOk);
   CHECK(text.find("results in " + s.Path("one")) != std::string::npos);
@@ -147,11 +56,7 @@ TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2
 
 TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterrupted run") {
   Scratch s("locind_runner_test_resume");
-  std::string bigger = kStudy;
-  bigger.replace(bigger.find("replicates: 4"), 13, "replicates: 10");
-  // Longer windows, so the killed run is still busy when the kill comes.
-  bigger.replace(bigger.find("lengths: [150, 300]"), 19, "lengths: [800, 1600]");
-  const std::string study = s.Write("tiny.yaml", bigger);
+  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
 
   const fs::path journal = s.dir / "killed" / Journal::FileName();
@@ -192,7 +97,7 @@ TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterr
 
 TEST_CASE("a second run into a folder in use is refused; another study's folder too") {
   Scratch s("locind_runner_test_lock");
-  const std::string study = s.Write("tiny.yaml", kStudy);
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
   {
     Result<std::unique_ptr<Journal>> held = Journal::Open(s.Path("busy"), "someone else");
     REQUIRE(held.ok());
@@ -207,7 +112,7 @@ TEST_CASE("a second run into a folder in use is refused; another study's folder 
 
 TEST_CASE("a replicate whose simulation fails is a row with status and message") {
   Scratch s("locind_runner_test_failed");
-  std::string capped = kStudy;
+  std::string capped = kTinyStudy;
   capped.replace(capped.find("burn_in: 20}"), 12, "burn_in: 20, event_cap: 40}");
   const std::string study = s.Write("capped.yaml", capped);
   std::string text;
@@ -217,6 +122,27 @@ TEST_CASE("a replicate whose simulation fails is a row with status and message")
   CHECK(rows.find(",ok,") == std::string::npos);  // 40 events never cover the window
   const std::string summary = ReadAll(s.dir / "out" / "summary.csv");
   CHECK(summary.find(",pairwise/hawkes-lr,4,4,") != std::string::npos);  // 4 replicates, 4 failed
+}
+
+TEST_CASE("without the MPI build option, MPI use is refused with the way out") {
+  Scratch s("locind_runner_test_no_mpi");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  std::string text;
+  if (BuiltWithMpi()) {
+    CHECK(Run({study, "--mpi-assign", "round-robin"}, &text) == kExitInputError);
+    CHECK(text == "locind run: --mpi-assign must be dispatch or static\n");
+    return;
+  }
+  CHECK(Run({study, "--mpi-assign", "static", "--out", s.Path("out")}, &text) == kExitInputError);
+  CHECK(text.find("locind run: --mpi-assign: this locind was built without MPI (configure with "
+                  "-DLOCIND_MPI=ON") == 0);
+  ::setenv("OMPI_COMM_WORLD_SIZE", "2", 1);  // as Open MPI's mpirun sets it
+  CHECK(Run({study, "--out", s.Path("out")}, &text) == kExitInputError);
+  ::unsetenv("OMPI_COMM_WORLD_SIZE");
+  CHECK(text.find("locind run: started as one of 2 copies by an MPI launcher, but this locind was "
+                  "built without MPI") == 0);
+  CHECK(text.find("split the study with --part K/N and locind merge") != std::string::npos);
+  CHECK_FALSE(fs::exists(s.dir / "out"));
 }
 
 }  // namespace
