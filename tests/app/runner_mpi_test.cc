@@ -109,7 +109,7 @@ TEST_CASE("mpirun -np 2 (dispatch, static) and -np 3 --threads 2 give the files 
   REQUIRE(Mpirun(2, {study, "--out", s.Path("dispatch")}, s, &log) == kExitOk);
   CHECK(Count(log, "2 ranks x 1 thread, dispatch; 0 of 8 units already done") == 1);
   CHECK(Count(log, "results in " + s.Path("dispatch")) == 1);  // rank 0 alone reports
-  // 3 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
+  // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
   CHECK(CompareFolders(s.dir / "one", s.dir / "dispatch") == 9);
   CHECK(CountLines(s.dir / "dispatch" / Journal::FileName()) == 1 + 8);
 
