@@ -9,6 +9,7 @@ packages=(
   libyaml-cpp-dev libbenchmark-dev doctest-dev
   graphviz libgraphviz-dev gnuplot-nox
   python3 python3-networkx python3-scipy python3-numpy
+  clang libclang-rt-14-dev
 )
 
 missing=()
