@@ -164,14 +164,14 @@ TEST_CASE("duplicate keys, memory_mb, wrong types and huge values") {
     REQUIRE(m.size() == 5);
     CHECK(m[0] == "t.yaml:4:18: grid.lengths: expected a finite number");
     CHECK(m[1] == "t.yaml:4:25: grid.lengths: expected a finite number");
-    CHECK(m[2] == "t.yaml:4:47: grid.replicates: expected a whole number from 1 to 1000000");
-    CHECK(m[3] == "t.yaml:4:61: grid.levels: expected a finite number");
+    CHECK(m[2] == "t.yaml:4:46: grid.replicates: expected a whole number from 1 to 1000000");
+    CHECK(m[3] == "t.yaml:4:60: grid.levels: expected a finite number");
     CHECK(m[4] == "t.yaml:5:7: seed: expected a whole number >= 0");
   }
   SUBCASE("an empty file") {
     const auto m = Messages(ParseStudyText("", "e.yaml"));
     REQUIRE(m.size() == 1);
-    CHECK(m[0] == "e.yaml:1:1: expected a mapping with truth, process, grid and learners");
+    CHECK(m[0] == "e.yaml: expected a mapping with truth, process, grid and learners");
   }
 }
 
