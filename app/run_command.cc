@@ -43,18 +43,16 @@ RunOptions ParseOptions(const std::vector<std::string>& args) {
   RunOptions o;
   std::string part = "1/1";
   po::options_description d("locind run");
-  d.add_options()("study", po::value(&o.study), "study file")("threads", po::value(&o.threads),
-                                                              "worker threads")(
-      "out", po::value(&o.out), "output folder")("part", po::value(&part), "run share K of N")(
-      "check", po::bool_switch(&o.check), "print the expected work and memory, write nothing");
+  d.add_options()("study", po::value(&o.study), "study file")(
+      "threads", po::value(&o.threads), "worker threads")("out", po::value(&o.out), "output folder")(
+      "part", po::value(&part), "run share K of N");
+  d.add_options()("check", po::bool_switch(&o.check), "print the expected work and memory only");
   po::positional_options_description positional;
   positional.add("study", 1);
   po::variables_map vm;
   po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
   po::notify(vm);
-  if (o.study.empty())
-    throw UsageError{
-        "usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]"};
+  if (o.study.empty()) throw UsageError{"usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]"};
   if (o.threads < 1 || o.threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
   const std::optional<Part> p = ParsePart(part);
   if (!p) throw UsageError{"--part expects K/N with 1 <= K <= N, e.g. 2/8"};

@@ -36,6 +36,16 @@ double ExpectedEvents(const StudySpec& study, const PreparedTruth& truth, const 
   return rates->sum() * (study.event_process.burn_in + cell.length);
 }
 
+// A diffusion truth whose drift is unstable, as a note (empty when stable).
+std::string PathNote(const StudySpec& study, const PreparedTruth& truth, const Cell& cell) {
+  Result<BuiltDiffusion> built = BuildDiffusion(study, truth, cell);
+  if (!built.ok()) return built.status().message();
+  if (built->largest_real_part < 0) return "";
+  char part[32];
+  std::snprintf(part, sizeof part, "%.3g", built->largest_real_part);
+  return std::string("unstable (largest real part ") + part + "): its replicates fail with a message";
+}
+
 std::string Megabytes(double bytes) {
   char text[32];
   std::snprintf(text, sizeof text, bytes < 10 * kMiB ? "%.1f MB" : "%.0f MB", bytes / kMiB);
@@ -89,6 +99,7 @@ StudyCost EstimateCost(const StudySpec& study, const std::vector<Cell>& cells,
         bytes = points * BytesPerEvent(study, observed);
       } else {
         points = PathPoints(study, cell, observed);
+        note = PathNote(study, truth, cell);
         bytes = points * BytesPerSample();
       }
       if (!note.empty() && c.note.empty()) c.note = "truth " + std::to_string(t + 1) + ": " + note;

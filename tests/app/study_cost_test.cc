@@ -83,6 +83,15 @@ TEST_CASE("path study: samples on the observation grid") {
   // Times 0, 0.25, ..., 10: 41 samples of the 2 observed processes.
   CHECK(c.cost.per_cell[0].points == 82);
   CHECK(c.cost.per_cell[0].bytes == 82 * BytesPerSample());
+  CHECK(c.cost.per_cell[0].note.empty());
+  // Coupling 2 against self rates 1: M = [[-1, 0], [2, -1]] is stable (both
+  // eigenvalues -1), but [[-1, 2], [2, -1]] (a cycle) has eigenvalue 1.
+  const Costed cycle = Cost(
+      "truth: {nodes: [x, y], edges: [x -> x, y -> y, x -> y, y -> x]}\n"
+      "process: {paths: {coupling: 2}}\n"
+      "grid: {lengths: [10], replicates: 1}\n"
+      "learners: [{method: pairwise, test: drift-f}]\n");
+  CHECK(cycle.cost.per_cell[0].note == "truth 1: unstable (largest real part 1): its replicates fail with a message");
 }
 
 TEST_CASE("a non-stationary random truth is noted, not estimated") {
