@@ -44,6 +44,15 @@ std::string InputError::ToString() const {
   return out.str();
 }
 
+std::string ToString(const InputErrors& errors) {
+  std::string lines;
+  for (const InputError& e : errors) {
+    if (!lines.empty()) lines += '\n';
+    lines += e.ToString();
+  }
+  return lines;
+}
+
 bool AddInputError(InputErrors& errors, InputError e) {
   const std::string file = e.file;
   errors.push_back(std::move(e));

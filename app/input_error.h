@@ -29,6 +29,9 @@ struct InputError {
 // InputError and print one line each.
 using InputErrors = std::vector<InputError>;
 
+// Every problem as ToString(), one per line (no newline at the end).
+std::string ToString(const InputErrors& errors);
+
 // Readers that can go on after a bad row stop after this many problems.
 inline constexpr size_t kMaxInputErrors = 20;
 

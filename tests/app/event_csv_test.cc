@@ -16,12 +16,7 @@ EventsOrError Read(const std::string& text) {
 std::string ErrorOf(const std::string& text) {
   EventsOrError r = Read(text);
   REQUIRE(std::holds_alternative<InputErrors>(r));
-  std::string lines;
-  for (const InputError& e : std::get<InputErrors>(r)) {
-    if (!lines.empty()) lines += '\n';
-    lines += e.ToString();
-  }
-  return lines;
+  return ToString(std::get<InputErrors>(r));
 }
 
 TEST_CASE("event file: exact golden text and round trip") {

@@ -27,6 +27,7 @@ TEST_CASE("a reader lists at most kMaxInputErrors problems, then says it stopped
   REQUIRE(errors.size() == kMaxInputErrors + 1);
   CHECK(errors[kMaxInputErrors - 1].line == 99);
   CHECK(errors.back().ToString() == "d.csv: stopped after 20 problems");
+  CHECK(ToString(InputErrors{errors[0], errors.back()}) == "d.csv:2:1: bad\nd.csv: stopped after 20 problems");
 }
 
 }  // namespace

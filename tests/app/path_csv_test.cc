@@ -15,12 +15,7 @@ PathsOrError Read(const std::string& text) {
 std::string ErrorOf(const std::string& text) {
   PathsOrError r = Read(text);
   REQUIRE(std::holds_alternative<InputErrors>(r));
-  std::string lines;
-  for (const InputError& e : std::get<InputErrors>(r)) {
-    if (!lines.empty()) lines += '\n';
-    lines += e.ToString();
-  }
-  return lines;
+  return ToString(std::get<InputErrors>(r));
 }
 
 TEST_CASE("path file: golden text and round trip") {

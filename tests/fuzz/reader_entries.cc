@@ -24,15 +24,7 @@ std::string CheckError(const InputError& e) {
 }
 
 std::string Lines(const InputError& e) { return e.ToString(); }
-
-std::string Lines(const app::InputErrors& errors) {
-  std::string out;
-  for (const InputError& e : errors) {
-    if (!out.empty()) out += " | ";
-    out += e.ToString();
-  }
-  return out;
-}
+std::string Lines(const app::InputErrors& errors) { return app::ToString(errors); }
 
 std::string CheckErrors(const app::InputErrors& errors) {
   if (errors.empty()) return "failure without an error";
