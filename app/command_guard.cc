@@ -23,6 +23,9 @@ int GuardCommand(const std::string& name, std::ostream& err, const std::function
   } catch (const InputError& e) {
     err << e.ToString() << "\n";
     return kExitInputError;
+  } catch (const InputErrors& errors) {
+    for (const InputError& e : errors) err << e.ToString() << "\n";
+    return kExitInputError;
   } catch (const UsageError& e) {
     err << "locind " << name << ": " << e.message << "\n";
     return kExitInputError;

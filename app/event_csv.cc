@@ -162,35 +162,51 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
   Parsed p;
   bool header = false;
   double last = -INFINITY;
+  InputErrors rows;  // problems in event lines: reading goes on after them
   for (std::string text; std::getline(in, text);) {
     ++r.line;
     if (!text.empty() && text.back() == '\r') text.pop_back();
     std::optional<InputError> error;
     if (!header && StartsWith(text, kProcessesKey)) {
-      if (p.declared) return r.Error(1, "processes", "given twice");
+      if (p.declared) return InputErrors{r.Error(1, "processes", "given twice")};
       error = ReadProcesses(r, std::string_view(text).substr(sizeof kProcessesKey - 1),
                             sizeof kProcessesKey, p);
     } else if (!header && StartsWith(text, kWindowKey)) {
-      if (p.window) return r.Error(1, "window", "given twice");
+      if (p.window) return InputErrors{r.Error(1, "window", "given twice")};
       error = ReadWindow(r, std::string_view(text).substr(sizeof kWindowKey - 1), sizeof kWindowKey, p);
     } else if (!header && StartsWith(text, "#")) {
       continue;  // a comment before the header
     } else if (!header) {
-      if (text != kHeader) return r.Error(1, "header", "expected 'time,process'");
+      if (text != kHeader) return InputErrors{r.Error(1, "header", "expected 'time,process'")};
       header = true;
-    } else {
-      error = ReadEvent(r, text, last, p);
+    } else if (std::optional<InputError> bad = ReadEvent(r, text, last, p)) {
+      if (AddInputError(rows, *bad)) return rows;
     }
-    if (error) return *error;
+    if (error) return InputErrors{*error};
   }
   if (!header) {
-    return InputError{file, r.line + 1, 1, "header", r.line ? "missing 'time,process'" : "empty file"};
+    return InputErrors{InputError{file, r.line + 1, 1, "header",
+                                  r.line ? "missing 'time,process'" : "empty file"}};
+  }
+  if (!rows.empty()) return rows;
+  if (p.data.names.empty()) {
+    return InputErrors{
+        InputError{file, 0, 0, "processes", "no process: no events and no '# processes:' line"}};
   }
   if (!p.window) {
     p.data.start = 0;
     p.data.end = std::isfinite(last) ? std::max(last, 0.0) : 0.0;
-    if (std::isfinite(last) && last < 0) {
-      return InputError{file, 0, 0, "window", "negative times need a '# window:' line"};
+    const bool negative =
+        std::any_of(p.data.times.begin(), p.data.times.end(),
+                    [](const std::vector<double>& t) { return !t.empty() && t.front() < 0; });
+    if (negative) {
+      return InputErrors{
+          InputError{file, 0, 0, "window", "negative times need a '# window:' line"}};
+    }
+    if (!(p.data.end > p.data.start)) {
+      return InputErrors{
+          InputError{file, 0, 0, "window",
+                     "the window [0, last event time] is empty; give a '# window:' line"}};
     }
   }
   return std::move(p.data);
@@ -198,7 +214,7 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
 
 EventsOrError ReadEventCsvFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputError{path, 0, 0, "", "cannot open the file"};
+  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
   return ReadEventCsv(in, path);
 }
 

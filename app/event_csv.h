@@ -22,16 +22,18 @@
 
 namespace locind::app {
 
-using EventsOrError = std::variant<sim::EventData, InputError>;
+using EventsOrError = std::variant<sim::EventData, InputErrors>;
 
 // Streams `data` in the event file format, events merged across processes in
 // time order (ties broken by process order).
 void WriteEventCsv(const sim::EventData& data, std::ostream& out);
 std::string FormatEventCsv(const sim::EventData& data);
 
-// Reads an event file; `file` names the source in errors. Without the
+// Reads an event file; `file` names the source in errors. A problem in the
+// lines before the header stops reading; problems in event lines are all
+// reported (up to kMaxInputErrors), in file order. Without the
 // processes line, processes are named in order of first appearance; without
-// the window line, the window is [0, last event time].
+// the window line, the window is [0, last event time], which must not be empty.
 EventsOrError ReadEventCsv(std::istream& in, const std::string& file);
 EventsOrError ReadEventCsvFile(const std::string& path);
 

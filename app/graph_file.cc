@@ -143,11 +143,13 @@ GraphOrError ParseGraphText(const std::string& text, const std::string& file) {
     return InputError{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg};
   }
   if (!root.IsMap()) return InputError{file, 1, 1, "", "expected a mapping with nodes and edges"};
+  std::set<std::string> seen;
   for (const auto& kv : root) {
     const std::string key = kv.first.Scalar();
     if (key != "nodes" && key != "edges" && key != "hidden") {
       return ErrorAt(file, kv.first, key, "unknown key (expected nodes, edges or hidden)");
     }
+    if (!seen.insert(key).second) return ErrorAt(file, kv.first, key, "given twice");
   }
   return ParseGraphKeys(root, file);
 }

@@ -6,6 +6,7 @@
 #pragma once
 
 #include <string>
+#include <vector>
 
 namespace locind::app {
 
@@ -20,7 +21,22 @@ struct InputError {
   std::string field;
   std::string message;
 
+  // One line: control characters in any part are shown as C escapes.
   std::string ToString() const;
 };
+
+// Every problem found in one input, in file order; commands throw it like an
+// InputError and print one line each.
+using InputErrors = std::vector<InputError>;
+
+// Every problem as ToString(), one per line (no newline at the end).
+std::string ToString(const InputErrors& errors);
+
+// Readers that can go on after a bad row stop after this many problems.
+inline constexpr size_t kMaxInputErrors = 20;
+
+// Appends `e` to `errors`; at kMaxInputErrors problems also appends
+// "FILE: stopped after 20 problems" and returns true (stop reading).
+bool AddInputError(InputErrors& errors, InputError e);
 
 }  // namespace locind::app

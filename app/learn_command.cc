@@ -89,7 +89,7 @@ struct Inputs {
 
 void LoadEvents(const LearnOptions& o, Inputs& in) {
   EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<InputError>(&read)) throw *e;
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
   in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
   const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
   if (!options) {
@@ -105,7 +105,7 @@ void LoadEvents(const LearnOptions& o, Inputs& in) {
 
 void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathCsvFile(o.data);
-  if (auto* e = std::get_if<InputError>(&read)) throw *e;
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
   const std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
   if (!options) {

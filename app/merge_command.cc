@@ -60,6 +60,20 @@ std::vector<PartFolder> ReadParts(const std::vector<std::string>& dirs) {
   return parts;
 }
 
+// A replicate holds one row per learner of the study, in the study's order
+// (a duplicated, missing or unknown learner means the folder was edited).
+void CheckLearners(const StudySpec& study, const PartFolder& p, const UnitResult& unit) {
+  std::string found, expected;
+  for (const ReplicateRow& row : unit.rows) found += (found.empty() ? "" : ", ") + row.learner;
+  for (const LearnerSpec& l : study.learners) expected += (expected.empty() ? "" : ", ") + l.label;
+  if (found != expected) {
+    throw MergeError{p.dir + "/replicates.csv: cell " + std::to_string(unit.unit.cell) +
+                         " replicate " + std::to_string(unit.unit.replicate) + ": learners " +
+                         found + " (expected " + expected + ")",
+                     kExitInputError};
+  }
+}
+
 int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   std::vector<std::string> dirs;
   std::string out_dir;
@@ -88,6 +102,7 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
     }
     for (const Unit& u : expected) {
       if (!p.units.count(u)) throw MergeError{p.dir + ": a replicate of its share is missing", kExitInputError};
+      CheckLearners(study, p, p.units.at(u));
       units.emplace(u, p.units.at(u));
     }
   }

@@ -38,8 +38,11 @@ class Parser {
   void CheckKeys(const YAML::Node& map, const std::string& section,
                  const std::set<std::string>& allowed) {
     if (!map.IsMap()) Fail(map, section, "expected a mapping");
+    std::set<std::string> seen;
     for (const auto& kv : map) {
       const std::string key = kv.first.Scalar();
+      if (allowed.count(key) && !seen.insert(key).second)
+        Fail(kv.first, Join(section, key), "given twice");
       if (!allowed.count(key)) {
         std::string list;
         for (const std::string& k : allowed) list += (list.empty() ? "" : ", ") + k;
@@ -90,6 +93,8 @@ class Parser {
     for (const auto& kv : node) {
       const auto v = truth_.graph.index(kv.first.Scalar());
       if (!v) Fail(kv.first, field, "unknown node '" + kv.first.Scalar() + "'");
+      if (!std::isnan(out[*v]))
+        Fail(kv.first, field, "node '" + kv.first.Scalar() + "' given twice");
       out[*v] = Number(kv.second, field);
     }
     for (int v = 0; v < n; ++v) {

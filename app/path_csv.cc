@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <fstream>
+#include <optional>
 #include <set>
 #include <sstream>
 
@@ -34,6 +35,32 @@ std::variant<std::vector<std::string>, InputError> ReadHeader(const std::string&
   return names;
 }
 
+// The problem of one data row, if any; a good row is appended to `data`
+// (its time) and `values`.
+std::optional<InputError> ReadRow(const std::string& text, int line, const std::string& file,
+                                  sim::PathData& data, std::vector<double>& values) {
+  const size_t width = data.names.size() + 1;
+  const std::vector<csv::Field> f = csv::Split(text);
+  if (f.size() != width) {
+    return At(file, line, f.size() > width ? f[width].column : static_cast<int>(text.size()) + 1,
+              "",
+              "expected " + std::to_string(width) + " fields, found " + std::to_string(f.size()));
+  }
+  std::vector<double> row(width);
+  for (size_t i = 0; i < width; ++i) {
+    if (!csv::ParseNumber(f[i].text, row[i])) {
+      return At(file, line, f[i].column, i == 0 ? "time" : data.names[i - 1],
+                "expected a finite number");
+    }
+  }
+  if (!data.time.empty() && !(row[0] > data.time.back())) {
+    return At(file, line, 1, "time", "times must increase strictly");
+  }
+  data.time.push_back(row[0]);
+  values.insert(values.end(), row.begin() + 1, row.end());
+  return std::nullopt;
+}
+
 }  // namespace
 
 void WritePathCsv(const sim::PathData& data, std::ostream& out) {
@@ -55,40 +82,25 @@ std::string FormatPathCsv(const sim::PathData& data) {
 
 PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {
   std::string text;
-  if (!std::getline(in, text)) return At(file, 1, 1, "header", "empty file");
+  if (!std::getline(in, text)) return InputErrors{At(file, 1, 1, "header", "empty file")};
   if (!text.empty() && text.back() == '\r') text.pop_back();
   auto header = ReadHeader(text, file);
-  if (auto* e = std::get_if<InputError>(&header)) return *e;
+  if (auto* e = std::get_if<InputError>(&header)) return InputErrors{*e};
   sim::PathData data;
   data.names = std::get<std::vector<std::string>>(std::move(header));
-  const size_t width = data.names.size() + 1;
   std::vector<double> values;
+  InputErrors errors;  // problems in data rows: reading goes on after them
   int line = 1;
   while (std::getline(in, text)) {
     ++line;
     if (!text.empty() && text.back() == '\r') text.pop_back();
-    const std::vector<csv::Field> f = csv::Split(text);
-    if (f.size() != width) {
-      return At(file, line, f.size() > width ? f[width].column : static_cast<int>(text.size()) + 1,
-                "", "expected " + std::to_string(width) + " fields, found " + std::to_string(f.size()));
-    }
-    for (size_t i = 0; i < width; ++i) {
-      double v = 0;
-      const std::string field = i == 0 ? "time" : data.names[i - 1];
-      if (!csv::ParseNumber(f[i].text, v)) {
-        return At(file, line, f[i].column, field, "expected a finite number");
-      }
-      if (i == 0 && !data.time.empty() && !(v > data.time.back())) {
-        return At(file, line, 1, "time", "times must increase strictly");
-      }
-      if (i == 0) {
-        data.time.push_back(v);
-      } else {
-        values.push_back(v);
-      }
+    if (std::optional<InputError> bad = ReadRow(text, line, file, data, values)) {
+      if (AddInputError(errors, *bad)) return errors;
     }
   }
-  if (data.time.empty()) return At(file, line + 1, 1, "", "no samples after the header");
+  if (!errors.empty()) return errors;
+  if (data.time.empty())
+    return InputErrors{At(file, line + 1, 1, "", "no samples after the header")};
   const Eigen::Index n = static_cast<Eigen::Index>(data.names.size());
   data.values = Eigen::Map<Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
       values.data(), data.samples(), n);
@@ -97,7 +109,7 @@ PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {
 
 PathsOrError ReadPathCsvFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputError{path, 0, 0, "", "cannot open the file"};
+  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
   return ReadPathCsv(in, path);
 }
 

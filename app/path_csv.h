@@ -19,13 +19,15 @@
 
 namespace locind::app {
 
-using PathsOrError = std::variant<sim::PathData, InputError>;
+using PathsOrError = std::variant<sim::PathData, InputErrors>;
 
 // Streams `data` in the path file format.
 void WritePathCsv(const sim::PathData& data, std::ostream& out);
 std::string FormatPathCsv(const sim::PathData& data);
 
-// Reads a path file; `file` names the source in errors.
+// Reads a path file; `file` names the source in errors. A bad header stops
+// reading; problems in data rows are all reported (up to kMaxInputErrors),
+// in file order.
 PathsOrError ReadPathCsv(std::istream& in, const std::string& file);
 PathsOrError ReadPathCsvFile(const std::string& path);
 

@@ -1,5 +1,6 @@
 #include "app/results_merge.h"
 
+#include <charconv>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -28,11 +29,16 @@ std::optional<Unit> UnitOfLine(const std::string& line) {
   const size_t a = line.find(',');
   const size_t b = a == std::string::npos ? a : line.find(',', a + 1);
   if (b == std::string::npos) return std::nullopt;
-  try {
-    return Unit{std::stoi(line.substr(0, a)), std::stoi(line.substr(a + 1, b - a - 1))};
-  } catch (const std::exception&) {
+  Unit u;
+  const char* cell_end = line.data() + a;
+  const char* replicate_end = line.data() + b;
+  const auto cell = std::from_chars(line.data(), cell_end, u.cell);
+  const auto replicate = std::from_chars(cell_end + 1, replicate_end, u.replicate);
+  if (cell.ec != std::errc() || cell.ptr != cell_end || replicate.ec != std::errc() ||
+      replicate.ptr != replicate_end) {
     return std::nullopt;
   }
+  return u;
 }
 
 // Appends the rows of DIR/FILE (after its header) to the lines of their units.

@@ -1,6 +1,7 @@
 // locind run: run a study.
 //
-//   run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--mpi-assign dispatch|static]
+//   run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]
+//                  [--mpi-assign dispatch|static]
 //
 // Validates the study (every problem on stderr as FILE:LINE:COLUMN: FIELD:
 // message, exit 2, nothing written), draws the truths and computes their
@@ -8,7 +9,9 @@
 // (app/runner_journal.h) on N threads, and finally writes the result files
 // (app/results_writer.h) and prints the summary table. DIR defaults to
 // results/<study name>. Under mpirun, the units run on every rank and rank 0
-// does the rest (app/runner_mpi.h).
+// does the rest (app/runner_mpi.h). A study whose replicate would need more
+// memory than its memory_mb is refused before any work (app/study_cost.h);
+// --check prints the expected work and memory and writes nothing.
 #include <boost/program_options.hpp>
 #include <cstdio>
 #include <fstream>
@@ -24,6 +27,7 @@
 #include "app/runner.h"
 #include "app/runner_journal.h"
 #include "app/runner_mpi.h"
+#include "app/study_cost.h"
 #include "app/study_file.h"
 
 namespace locind::app {
@@ -37,6 +41,7 @@ struct RunOptions {
   int threads = 1;
   Part part;
   std::string assign;  // --mpi-assign
+  bool check = false;  // print the expected work and memory only
 };
 
 RunOptions ParseOptions(const std::vector<std::string>& args) {
@@ -47,12 +52,13 @@ RunOptions ParseOptions(const std::vector<std::string>& args) {
       "threads", po::value(&o.threads), "worker threads")("out", po::value(&o.out), "output folder")(
       "part", po::value(&part), "run share K of N")(
       "mpi-assign", po::value(&o.assign), "how ranks get units");
+  d.add_options()("check", po::bool_switch(&o.check), "print the expected work and memory only");
   po::positional_options_description positional;
   positional.add("study", 1);
   po::variables_map vm;
   po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
   po::notify(vm);
-  if (o.study.empty()) throw UsageError{"usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N]"};
+  if (o.study.empty()) throw UsageError{"usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]"};
   if (o.threads < 1 || o.threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
   const std::optional<Part> p = ParsePart(part);
   if (!p) throw UsageError{"--part expects K/N with 1 <= K <= N, e.g. 2/8"};
@@ -85,6 +91,20 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   const StudySpec& study = std::get<StudySpec>(read);
   const std::vector<Cell> cells = ExpandGrid(study);
   const StudyTruths truths(study, cells);
+  const StudyCost cost = EstimateCost(study, cells, truths);
+  if (o.check) {
+    out << CostText(study, cost, o.threads);
+    if (o.part.parts > 1) {
+      out << "part " << o.part.Text() << ": "
+          << UnitsOf(cells, study.grid.replicates, o.part).size() << " of " << cost.simulations
+          << " simulations\n";
+    }
+    return kExitOk;
+  }
+  if (const std::string memory = MemoryProblem(study, cost); !memory.empty()) {
+    err << InputError{o.study, 0, 0, "memory_mb", memory}.ToString() << "\n";
+    return kExitInputError;
+  }
   const std::string dir = o.out.empty() ? "results/" + study.name : o.out;
   // study.json names the version, so a folder of another version is not resumed.
   const std::string identity =
@@ -143,10 +163,12 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
 
 int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
-    out << "usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N]\n"
+    out << "usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]\n"
            "  --threads N   worker threads (default 1)\n"
-           "  --out DIR     result folder (default results/<study name>); an existing one is resumed\n"
+           "  --out DIR     result folder (default results/<study name>); an existing one is "
+           "resumed\n"
            "  --part K/N    run share K of N (join the shares with locind merge)\n"
+           "  --check       print the expected work and memory of the study; write nothing\n"
            "  --mpi-assign dispatch|static\n"
            "                under mpirun: units handed out by rank 0 on request, longest first\n"
            "                (default), or fixed shares; needs a build with LOCIND_MPI\n"

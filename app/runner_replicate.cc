@@ -7,6 +7,8 @@
 #include <sstream>
 #include <variant>
 
+#include "app/event_csv.h"
+#include "app/study_cost.h"
 #include "app/test_choice.h"
 #include "learners/drift_test.h"
 #include "learners/hawkes_features.h"
@@ -70,10 +72,13 @@ Simulated SimulateEvents(const StudySpec& study, const PreparedTruth& truth, con
   sim::HawkesRunOptions run;
   run.horizon = cell.length;
   run.burn_in = study.event_process.burn_in;
-  run.event_cap = study.event_process.event_cap;
+  run.event_cap = EventCap(study, static_cast<int>(truth.truth.Observed().size()));
   Result<sim::EventData> data = sim::SimulateHawkes(built->model, run, random);
   if (!data.ok()) {
     s.failure = "simulation: " + data.status().message();
+    if (run.event_cap < study.event_process.event_cap) {
+      s.failure += " (the cap comes from memory_mb: " + std::to_string(study.memory_mb) + ")";
+    }
     return s;
   }
   s.events = std::make_unique<sim::EventData>(std::move(data.value()));
@@ -97,6 +102,14 @@ Simulated SimulatePaths(const StudySpec& study, const PreparedTruth& truth, cons
   run.interval = p.interval;
   run.burn_in = p.burn_in;
   run.method = p.exact ? sim::PathMethod::kExact : sim::PathMethod::kEuler;
+  // Path sizes are known in advance: refuse a draw memory_mb cannot hold
+  // (locind run refuses such studies up front; locind plan may reach them).
+  const double samples = PathPoints(study, cell, static_cast<int>(truth.truth.Observed().size()));
+  if (samples * BytesPerSample() > static_cast<double>(study.memory_mb) * 1024 * 1024) {
+    s.failure = "simulation: " + csv::FormatNumber(samples) +
+                " samples x processes need more than memory_mb: " + std::to_string(study.memory_mb);
+    return s;
+  }
   Result<sim::PathData> data = sim::SimulateDiffusion(built->model, run, random);
   if (!data.ok()) {
     s.failure = "simulation: " + data.status().message();

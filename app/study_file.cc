@@ -46,7 +46,9 @@ class StudyParser {
       Error(root, "", "expected a mapping with truth, process, grid and learners");
       return s;
     }
-    CheckKeys(root, "", {"name", "description", "seed", "truth", "process", "grid", "learners", "plan"});
+    CheckKeys(root, "",
+              {"name", "description", "seed", "truth", "process", "grid", "learners", "plan",
+               "memory_mb"});
     if (root["name"]) s.name = Name(root["name"], "name");
     if (root["description"] && !root["description"].IsScalar()) {
       Error(root["description"], "description", "expected text");
@@ -57,6 +59,7 @@ class StudyParser {
     if (Require(root, "grid", "")) s.grid = ParseGrid(root["grid"], s);
     if (Require(root, "learners", "")) s.learners = ParseLearners(root["learners"], s.events);
     if (root["plan"]) s.plan = ParsePlan(root["plan"]);
+    s.memory_mb = Whole(root, "memory_mb", "", static_cast<int>(s.memory_mb), 16, 16'777'216);
     CrossChecks(root, s);
     return s;
   }
@@ -79,10 +82,13 @@ class StudyParser {
       Error(map, section, "expected a mapping");
       return false;
     }
+    Keys seen;
     for (const auto& kv : map) {
       const std::string key = kv.first.Scalar();
       if (!allowed.count(key)) {
         Error(kv.first, Join(section, key), "unknown key (expected one of: " + List(allowed) + ")");
+      } else if (!seen.insert(key).second) {
+        Error(kv.first, Join(section, key), "given twice");
       }
     }
     return true;

@@ -95,6 +95,10 @@ struct StudySpec {
   GridSpec grid;
   std::vector<LearnerSpec> learners;
   PlanSpec plan;
+  // Memory one replicate may use, in MiB: a study whose expected replicate
+  // needs more is refused before any work, and an event simulation stops
+  // (the replicate fails with a message) once its events would need more.
+  int64_t memory_mb = 2048;
 };
 
 }  // namespace locind::app

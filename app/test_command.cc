@@ -79,7 +79,7 @@ std::vector<double> ParseRates(const TestOptions& o) {
 
 std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<InputError>(&read)) throw *e;
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
   sim::EventData data = std::get<sim::EventData>(std::move(read));
   const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
   if (!options) {
@@ -96,7 +96,7 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathCsvFile(o.data);
-  if (auto* e = std::get_if<InputError>(&read)) throw *e;
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
   std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
   if (!options) {
     throw UsageError{"unknown test '" + o.test + "' for paths (drift-f, drift-robust-wald)"};

@@ -65,8 +65,11 @@ std::vector<std::string> RoleNames(int nodes, const std::vector<int>& hidden) {
   int hidden_count = 0;
   for (int v = 0; v < nodes; ++v) {
     const bool is_hidden = std::binary_search(hidden.begin(), hidden.end(), v);
-    names[v] = is_hidden ? "h" + std::to_string(++hidden_count)
-                         : "x" + std::to_string(++observed_count);
+    // Built from a char rather than "h" + to_string(): g++ 12 -O2 warns
+    // (-Wrestrict, a false positive) on the inlined literal + temporary.
+    std::string name(1, is_hidden ? 'h' : 'x');
+    name += std::to_string(is_hidden ? ++hidden_count : ++observed_count);
+    names[v] = std::move(name);
   }
   return names;
 }

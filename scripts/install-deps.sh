@@ -11,6 +11,7 @@ packages=(
   chromium fonts-dejavu-core
   libopenmpi-dev openmpi-bin
   python3 python3-networkx python3-scipy python3-numpy
+  clang libclang-rt-14-dev
 )
 
 missing=()

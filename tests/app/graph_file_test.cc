@@ -43,6 +43,21 @@ TEST_CASE("errors name the file, line, column and field") {
         0);
   CHECK(ErrorOf("nodes: [a, b\n").ToString().rfind("g.yaml:", 0) == 0);
   CHECK(ErrorOf("edges: [a -> b]\n").field == "nodes");
+  CHECK(ErrorOf("nodes: [a, b]\nnodes: [c]\n").ToString() == "g.yaml:2:1: nodes: given twice");
+  CHECK(ErrorOf("nodes: [a, b]\nhidden: [c]\n").ToString() ==
+        "g.yaml:2:10: hidden: unknown node 'c'");
+  CHECK(ErrorOf("nodes: [a, b]\nhidden: [a, a]\n").ToString() ==
+        "g.yaml:2:13: hidden: node 'a' listed twice");
+  CHECK(ErrorOf("nodes: a\n").ToString() == "g.yaml:1:8: nodes: expected a list of node names");
+  CHECK(ErrorOf("nodes: []\n").ToString() == "g.yaml:1:8: nodes: a graph needs at least one node");
+  CHECK(ErrorOf("nodes: [a]\nedges: a -> a\n").ToString() ==
+        "g.yaml:2:8: edges: expected a list of edges");
+  CHECK(ErrorOf("").ToString() == "g.yaml:1:1: expected a mapping with nodes and edges");
+  CHECK(ErrorOf("[a, b]\n").ToString() == "g.yaml:1:1: expected a mapping with nodes and edges");
+  // A control character quoted back by the YAML parser stays on one line.
+  const std::string escaped = ErrorOf("nodes: [\"a\\\x01\"]\n").ToString();
+  CHECK(escaped.find('\x01') == std::string::npos);
+  CHECK(escaped.rfind("g.yaml:1:", 0) == 0);
 }
 
 TEST_CASE("a missing or empty file is an input error") {

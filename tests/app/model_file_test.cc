@@ -90,6 +90,17 @@ TEST_CASE("model file errors point at the offending spot") {
   CHECK(ErrorOf("nodes: [a]\nevents: {}\npaths: {}\n") ==
         "m.yaml:3:8: paths: a model has either events or paths, not both");
   CHECK(ErrorOf("nodes: [a\n").find("m.yaml:") == 0);
+  CHECK(ErrorOf(head + "events:\n  baseline: {a: 1, a: 2, b: 1}\n") ==
+        "m.yaml:4:20: events.baseline: node 'a' given twice");
+  CHECK(ErrorOf(head + "events:\n  link: linear\n  link: softplus\n") ==
+        "m.yaml:5:3: events.link: given twice");
+  CHECK(ErrorOf(head + "events:\n  baseline: {a: 1, c: 2}\n") ==
+        "m.yaml:4:20: events.baseline: unknown node 'c'");
+  CHECK(ErrorOf(head + "events:\n  event_cap: 1e99\n") ==
+        "m.yaml:4:14: events.event_cap: expected a whole number >= 1");
+  CHECK(ErrorOf(head + "events:\n  baseline: .nan\n") ==
+        "m.yaml:4:13: events.baseline: expected a finite number");
+  CHECK(ErrorOf("") == "m.yaml:1:1: expected a mapping with nodes and edges");
 }
 
 }  // namespace

@@ -14,8 +14,8 @@ PathsOrError Read(const std::string& text) {
 
 std::string ErrorOf(const std::string& text) {
   PathsOrError r = Read(text);
-  REQUIRE(std::holds_alternative<InputError>(r));
-  return std::get<InputError>(r).ToString();
+  REQUIRE(std::holds_alternative<InputErrors>(r));
+  return ToString(std::get<InputErrors>(r));
 }
 
 TEST_CASE("path file: golden text and round trip") {
@@ -45,6 +45,20 @@ TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("time,x\n0,1\n0,2\n") == "p.csv:3:1: time: times must increase strictly");
   CHECK(ErrorOf("time,x\n0,abc\n") == "p.csv:2:3: x: expected a finite number");
   CHECK(ErrorOf("time,x\n0,1e999\n") == "p.csv:2:3: x: expected a finite number");
+  CHECK(ErrorOf("time,x\n0,nan\n") == "p.csv:2:3: x: expected a finite number");
+  CHECK(ErrorOf("time,x\n-inf,1\n") == "p.csv:2:1: time: expected a finite number");
+  CHECK(ErrorOf("time,1x\n") == "p.csv:1:6: header: expected a process name");
+  CHECK(ErrorOf("\n") == "p.csv:1:1: header: expected 'time' as the first column");
+}
+
+TEST_CASE("path file: every bad row is reported, and huge finite values are values") {
+  CHECK(ErrorOf("time,x,y\n0,1,2\n1,3\n1,4,zz\n-1,1,1\n2,1,1\n") ==
+        "p.csv:3:4: expected 3 fields, found 2\n"
+        "p.csv:4:5: y: expected a finite number\n"
+        "p.csv:5:1: time: times must increase strictly");
+  const PathsOrError huge = Read("time,x\n0,1.7976931348623157e308\n1e300,-1e300\n");
+  REQUIRE(std::holds_alternative<sim::PathData>(huge));
+  CHECK(std::get<sim::PathData>(huge).values(0, 0) == 1.7976931348623157e308);
 }
 
 }  // namespace

@@ -34,7 +34,7 @@ TEST_CASE("a line plot: data blocks, bands, markers, log x for lengths spanning 
         std::string::npos);
 }
 
-TEST_CASE("targets and planned lengths; log y drops values that are not positive") {
+TEST_CASE("targets and planned lengths, and log y drops values that are not positive") {
   LinePlot plot = TwoLearners();
   plot.target = 0.8;
   plot.target_label = "target 0.8";

@@ -102,7 +102,7 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   CHECK_FALSE(ParseReplicateRow(failed + ",1").has_value());
 }
 
-TEST_CASE("journal lines: a unit reads back; torn or malformed lines do not") {
+TEST_CASE("journal lines: a unit reads back, torn or malformed lines do not") {
   UnitResult u;
   u.unit = Unit{2, 5};
   ReplicateRow r;

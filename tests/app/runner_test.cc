@@ -27,7 +27,7 @@ namespace fs = std::filesystem;
 
 using namespace locind::testing;
 
-TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2/2 merged") {
+TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2 + 2/2 merged") {
   Scratch s("locind_runner_test_threads");
   const std::string study = s.Write("tiny.yaml", kTinyStudy);
   std::string text;
@@ -54,39 +54,47 @@ TEST_CASE("--threads 1 and --threads 2 give the same files; so do --part 1/2 + 2
   }
 }
 
-TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterrupted run") {
-  Scratch s("locind_runner_test_resume");
-  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
-  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
-
-  const fs::path journal = s.dir / "killed" / Journal::FileName();
+// Runs `args` in a child process and kills it with SIGKILL once `units`
+// units are committed to the journal of `dir`, then appends a torn line as a
+// kill in the middle of a write would leave. Returns the units committed.
+int RunAndKill(const std::vector<std::string>& args, const fs::path& dir, int units) {
+  const fs::path journal = dir / Journal::FileName();
   const pid_t child = fork();
   REQUIRE(child >= 0);
   if (child == 0) {
     std::ostringstream out, err;
-    _exit(RunRunCommand({study, "--threads", "1", "--out", s.Path("killed")}, out, err));
+    _exit(RunRunCommand(args, out, err));
   }
   // Kill it once a few units (journal lines after the header) are committed.
   const auto deadline = std::chrono::steady_clock::now() + std::chrono::seconds(60);
-  while (CountLines(journal) < 4 && std::chrono::steady_clock::now() < deadline) {
+  while (CountLines(journal) < units + 1 && std::chrono::steady_clock::now() < deadline) {
     std::this_thread::sleep_for(std::chrono::milliseconds(2));
   }
   kill(child, SIGKILL);
   int status = 0;
   waitpid(child, &status, 0);
   REQUIRE(WIFSIGNALED(status));  // it was killed, not finished
+  CHECK_FALSE(fs::exists(dir / "replicates.csv"));
   const int committed = CountLines(journal) - 1;
+  std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t0\t1,9,t2,1600";
+  return committed;
+}
+
+TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterrupted run") {
+  Scratch s("locind_runner_test_resume");
+  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
+
+  const int committed =
+      RunAndKill({study, "--threads", "1", "--out", s.Path("killed")}, s.dir / "killed", 3);
   CHECK(committed >= 3);
   CHECK(committed < 20);  // 2 cells x 10 replicates: some were still missing
-  CHECK_FALSE(fs::exists(s.dir / "killed" / "replicates.csv"));
-  // A torn last line, as a kill in the middle of a write would leave.
-  std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t0\t1,9,t2,1600";
 
   std::string text;
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("killed")}, &text) == kExitOk);
   CHECK(text.find(std::to_string(committed) + " of 20 units already done") != std::string::npos);
   CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
-  CHECK(CountLines(journal) == 21);
+  CHECK(CountLines(s.dir / "killed" / Journal::FileName()) == 21);
 
   {  // running the finished study again only rewrites the same files
     REQUIRE(Run({study, "--out", s.Path("killed")}, &text) == kExitOk);
@@ -95,7 +103,27 @@ TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterr
   }
 }
 
-TEST_CASE("a second run into a folder in use is refused; another study's folder too") {
+TEST_CASE("--part shares merged after one was killed and resumed: the files of one whole run") {
+  Scratch s("locind_runner_test_part_resume");
+  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
+
+  const int committed =
+      RunAndKill({study, "--part", "1/2", "--out", s.Path("p1")}, s.dir / "p1", 2);
+  CHECK(committed >= 2);
+  CHECK(committed < 10);  // share 1 of 2 holds 10 of the 20 units
+  std::string text;
+  REQUIRE(Run({study, "--part", "1/2", "--threads", "2", "--out", s.Path("p1")}, &text) == kExitOk);
+  CHECK(text.find(std::to_string(committed) + " of 10 units already done") != std::string::npos);
+  REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
+
+  std::ostringstream out, err;
+  REQUIRE(RunMergeCommand({s.Path("p1"), s.Path("p2"), "--out", s.Path("merged")}, out, err) ==
+          kExitOk);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 9);
+}
+
+TEST_CASE("a second run into a folder in use is refused, and so is another study's folder") {
   Scratch s("locind_runner_test_lock");
   const std::string study = s.Write("tiny.yaml", kTinyStudy);
   {

@@ -131,6 +131,50 @@ TEST_CASE("missing sections, explicit-graph errors and cross-field rules") {
   }
 }
 
+TEST_CASE("duplicate keys, memory_mb, wrong types and huge values") {
+  const std::string rest =
+      "truth: {nodes: [a, b], edges: [a -> b]}\nprocess: {events: {}}\n"
+      "learners: [{method: pairwise, test: oracle}]\n";
+  SUBCASE("a key given twice is refused, not silently dropped") {
+    const auto m =
+        Messages(ParseStudyText(rest + "grid: {lengths: [10]}\nseed: 1\nseed: 2\n", "k.yaml"));
+    REQUIRE(m.size() == 1);
+    CHECK(m[0] == "k.yaml:6:1: seed: given twice");
+    const auto n = Messages(
+        ParseStudyText(rest + "grid: {lengths: [10], replicates: 2, replicates: 3}\n", "k.yaml"));
+    REQUIRE(n.size() == 1);
+    CHECK(n[0] == "k.yaml:4:38: grid.replicates: given twice");
+  }
+  SUBCASE("memory_mb: a whole number of MiB, default 2048") {
+    const StudyOrErrors ok = ParseStudyText(rest + "grid: {lengths: [10]}\n", "m.yaml");
+    REQUIRE(std::holds_alternative<StudySpec>(ok));
+    CHECK(std::get<StudySpec>(ok).memory_mb == 2048);
+    const auto m =
+        Messages(ParseStudyText(rest + "grid: {lengths: [10]}\nmemory_mb: lots\n", "m.yaml"));
+    REQUIRE(m.size() == 1);
+    CHECK(m[0] == "m.yaml:5:12: memory_mb: expected a whole number from 16 to 16777216");
+    CHECK(
+        Messages(ParseStudyText(rest + "grid: {lengths: [10]}\nmemory_mb: 8\n", "m.yaml")).size() ==
+        1);
+  }
+  SUBCASE("wrong types and huge values") {
+    const auto m = Messages(ParseStudyText(
+        rest + "grid: {lengths: [1e999, {a: 1}], replicates: 1e12, levels: oops}\nseed: -1\n",
+        "t.yaml"));
+    REQUIRE(m.size() == 5);
+    CHECK(m[0] == "t.yaml:4:18: grid.lengths: expected a finite number");
+    CHECK(m[1] == "t.yaml:4:25: grid.lengths: expected a finite number");
+    CHECK(m[2] == "t.yaml:4:46: grid.replicates: expected a whole number from 1 to 1000000");
+    CHECK(m[3] == "t.yaml:4:60: grid.levels: expected a finite number");
+    CHECK(m[4] == "t.yaml:5:7: seed: expected a whole number >= 0");
+  }
+  SUBCASE("an empty file") {
+    const auto m = Messages(ParseStudyText("", "e.yaml"));
+    REQUIRE(m.size() == 1);
+    CHECK(m[0] == "e.yaml: expected a mapping with truth, process, grid and learners");
+  }
+}
+
 TEST_CASE("an explicit event truth must be stationary at the upper ends of its weight ranges") {
   // K has the loop a -> a (0.5) and the cycle a -> b -> a (0.7 each): its
   // eigenvalues solve x (x - 0.5) = 0.49, largest 0.25 + sqrt(0.0625 + 0.49)

@@ -97,7 +97,10 @@ TEST_CASE("F3: the projection keeps every separation among observed nodes") {
 
 TEST_CASE("projection refuses graphs beyond the bit-graph limit") {
   std::vector<std::string> names;
-  for (int i = 0; i < 65; ++i) names.push_back("v" + std::to_string(i));
+  for (int i = 0; i < 65; ++i) {
+    names.emplace_back(1, 'v');  // not "v" + to_string(): a g++ 12 -Wrestrict false positive
+    names.back() += std::to_string(i);
+  }
   Result<Dmg> p = LatentProjection(Dmg(names), {0});
   REQUIRE_FALSE(p.ok());
   CHECK(p.status().message().find("64") != std::string::npos);

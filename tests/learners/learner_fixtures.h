@@ -28,7 +28,10 @@ inline graph::BitGraph ThreeNodeGraph(int bits) {
 
 inline std::vector<std::string> Names(int n) {
   std::vector<std::string> out;
-  for (int v = 0; v < n; ++v) out.push_back("x" + std::to_string(v + 1));
+  for (int v = 0; v < n; ++v) {
+    out.emplace_back(1, 'x');  // not "x" + to_string(): a g++ 12 -Wrestrict false positive
+    out.back() += std::to_string(v + 1);
+  }
   return out;
 }
 

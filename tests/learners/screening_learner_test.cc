@@ -32,7 +32,7 @@ bool Contains(const BitGraph& big, const BitGraph& small) {
   return true;
 }
 
-TEST_CASE("keeps the maximal graph; with k = n - 1 it is the graph of inseparable pairs") {
+TEST_CASE("keeps the maximal graph, and with k = n - 1 it is the graph of inseparable pairs") {
   int not_superset = 0;
   int differs_full = 0;
   int strictly_larger = 0;

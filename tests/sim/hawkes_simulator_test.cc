@@ -231,7 +231,7 @@ TEST_CASE("no kernels: a Poisson process at the linked baseline rate") {
   CHECK(data.times[0].size() / o.horizon == doctest::Approx(1.5).epsilon(0.02));
 }
 
-TEST_CASE("hidden nodes are simulated then dropped; output window and order") {
+TEST_CASE("hidden nodes are simulated then dropped, output window and order") {
   // h drives x1 and x2; x2 -> x1.
   const graph::TruthGraph truth = Graph({"x1", "h", "x2"}, {{1, 0}, {1, 2}, {2, 0}}, {1});
   const HawkesModel m = ExponentialHawkes(truth, 0.5, 0.4, 1.0);
