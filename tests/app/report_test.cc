@@ -14,6 +14,8 @@
 #include <map>
 #include <sstream>
 
+#include <unistd.h>
+
 #include "app/command.h"
 #include "app/external_program.h"
 #include "app/input_error.h"
@@ -50,20 +52,25 @@ std::string ReadAll(const fs::path& p) {
   return s.str();
 }
 
-// Runs the study once for every test case of this file.
-const fs::path& StudyFolder() {
-  static const fs::path dir = [] {
-    const fs::path d = fs::temp_directory_path() / "locind_report_test";
-    fs::remove_all(d);
-    fs::create_directories(d);
-    std::ofstream(d / "study.yaml") << kStudy;
+// Runs the study once per process (ctest runs each test case as its own
+// process, several at a time, so each gets its own folder, removed at exit).
+struct StudyRun {
+  fs::path dir = fs::temp_directory_path() / ("locind_report_test_" + std::to_string(::getpid()));
+  StudyRun() {
+    fs::remove_all(dir);
+    fs::create_directories(dir);
+    std::ofstream(dir / "study.yaml") << kStudy;
     const testing::Outcome run =
-        testing::RunHandler(RunRunCommand, {(d / "study.yaml").string(), "--out", (d / "out").string()});
+        testing::RunHandler(RunRunCommand, {(dir / "study.yaml").string(), "--out", (dir / "out").string()});
     REQUIRE_MESSAGE(run.code == kExitOk, run.err);
     CHECK(run.out.find("report in ") != std::string::npos);
-    return d / "out";
-  }();
-  return dir;
+  }
+  ~StudyRun() { fs::remove_all(dir); }
+};
+
+fs::path StudyFolder() {
+  static const StudyRun run;
+  return run.dir / "out";
 }
 
 std::vector<std::string> Split(const std::string& line) {
@@ -139,7 +146,7 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
 }
 
 TEST_CASE("a folder that is not a finished run is refused with exit code 2 and no report") {
-  const fs::path dir = fs::temp_directory_path() / "locind_report_test_bad";
+  const fs::path dir = fs::temp_directory_path() / ("locind_report_test_bad_" + std::to_string(::getpid()));
   fs::remove_all(dir);
   fs::create_directories(dir / "input");
   testing::Outcome r = testing::RunHandler(RunReportCommand, {dir.string()});
