@@ -20,6 +20,7 @@
 #include "app/external_program.h"
 #include "app/input_error.h"
 #include "tests/app/command_fixture.h"
+#include "tests/app/run_folders.h"
 
 namespace locind::app {
 namespace {
@@ -45,12 +46,7 @@ const char kStudy[] =
     "  - {method: maximal-search, test: hawkes-lr}\n"
     "  - {method: maximal-search, test: oracle}\n";
 
-std::string ReadAll(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using testing::ReadAll;
 
 // Runs the study once per process (ctest runs each test case as its own
 // process, several at a time, so each gets its own folder, removed at exit).

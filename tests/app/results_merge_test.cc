@@ -12,6 +12,7 @@
 #include "app/command.h"
 #include "app/input_error.h"
 #include "tests/app/command_fixture.h"
+#include "tests/app/run_folders.h"
 
 namespace locind::app {
 namespace {
@@ -30,12 +31,7 @@ const char kStudy[] =
     "  - {method: pairwise, test: oracle}\n"
     "  - {method: maximal-search, test: oracle}\n";
 
-std::string ReadAll(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using testing::ReadAll;
 
 void WriteAll(const fs::path& p, const std::string& text) {
   std::ofstream(p, std::ios::binary) << text;
