@@ -109,7 +109,7 @@ std::optional<InputError> ReadWindow(const Reader& r, std::string_view rest, int
 std::optional<InputError> ReadEvent(const Reader& r, std::string_view text, double& last, Parsed& p) {
   const std::vector<csv::Field> f = csv::Split(text);
   if (f.size() != 2) {
-    return r.Error(f.size() > 2 ? f[2].column : static_cast<int>(text.size()) + 1, "",
+    return r.Error(f.size() > 2 ? f[2].column : static_cast<int>(text.size()) + 1, "row",
                    "expected 2 fields 'time,process', found " + std::to_string(f.size()));
   }
   double t = 0;

@@ -43,7 +43,7 @@ std::optional<InputError> ReadRow(const std::string& text, int line, const std::
   const std::vector<csv::Field> f = csv::Split(text);
   if (f.size() != width) {
     return At(file, line, f.size() > width ? f[width].column : static_cast<int>(text.size()) + 1,
-              "",
+              "row",
               "expected " + std::to_string(width) + " fields, found " + std::to_string(f.size()));
   }
   std::vector<double> row(width);

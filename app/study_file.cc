@@ -43,7 +43,7 @@ class StudyParser {
     s.file = file_;
     s.name = std::filesystem::path(file_).stem().string();
     if (!root.IsMap()) {
-      Error(root, "", "expected a mapping with truth, process, grid and learners");
+      Error(root, "study", "expected a mapping with truth, process, grid and learners");
       return s;
     }
     CheckKeys(root, "",

@@ -57,8 +57,8 @@ TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("time,process\nnan,a\n") == "ev.csv:2:1: time: expected a finite number");
   CHECK(ErrorOf("time,process\ninf,a\n") == "ev.csv:2:1: time: expected a finite number");
   CHECK(ErrorOf("time,process\n1,a,b\n") ==
-        "ev.csv:2:5: expected 2 fields 'time,process', found 3");
-  CHECK(ErrorOf("time,process\n1\n") == "ev.csv:2:2: expected 2 fields 'time,process', found 1");
+        "ev.csv:2:5: row: expected 2 fields 'time,process', found 3");
+  CHECK(ErrorOf("time,process\n1\n") == "ev.csv:2:2: row: expected 2 fields 'time,process', found 1");
   CHECK(ErrorOf("# processes: a,b\ntime,process\n1,c\n") ==
         "ev.csv:3:3: process: unknown process 'c'");
   CHECK(ErrorOf("# processes: a, a\n") == "ev.csv:1:17: processes: duplicate process 'a'");
@@ -79,7 +79,7 @@ TEST_CASE("event file: every bad event line is reported, one line each") {
   CHECK(ErrorOf("time,process\n1,a\nx,a\n0.5,a\n2,a,b\n3,a\n") ==
         "ev.csv:3:1: time: expected a finite number\n"
         "ev.csv:4:1: time: events must be sorted by time (0.5 comes after 1)\n"
-        "ev.csv:5:5: expected 2 fields 'time,process', found 3");
+        "ev.csv:5:5: row: expected 2 fields 'time,process', found 3");
   std::string many = "time,process\n";
   for (int i = 0; i < 30; ++i) many += "nan,a\n";
   const std::string lines = ErrorOf(many);

@@ -40,8 +40,8 @@ TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("time\n") == "p.csv:1:1: header: expected at least one process column");
   CHECK(ErrorOf("time,x,x\n") == "p.csv:1:8: header: duplicate process 'x'");
   CHECK(ErrorOf("time,x\n") == "p.csv:2:1: no samples after the header");
-  CHECK(ErrorOf("time,x,y\n0,1,2\n1,3\n") == "p.csv:3:4: expected 3 fields, found 2");
-  CHECK(ErrorOf("time,x\n0,1,2\n") == "p.csv:2:5: expected 2 fields, found 3");
+  CHECK(ErrorOf("time,x,y\n0,1,2\n1,3\n") == "p.csv:3:4: row: expected 3 fields, found 2");
+  CHECK(ErrorOf("time,x\n0,1,2\n") == "p.csv:2:5: row: expected 2 fields, found 3");
   CHECK(ErrorOf("time,x\n0,1\n0,2\n") == "p.csv:3:1: time: times must increase strictly");
   CHECK(ErrorOf("time,x\n0,abc\n") == "p.csv:2:3: x: expected a finite number");
   CHECK(ErrorOf("time,x\n0,1e999\n") == "p.csv:2:3: x: expected a finite number");
@@ -53,7 +53,7 @@ TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
 
 TEST_CASE("path file: every bad row is reported, and huge finite values are values") {
   CHECK(ErrorOf("time,x,y\n0,1,2\n1,3\n1,4,zz\n-1,1,1\n2,1,1\n") ==
-        "p.csv:3:4: expected 3 fields, found 2\n"
+        "p.csv:3:4: row: expected 3 fields, found 2\n"
         "p.csv:4:5: y: expected a finite number\n"
         "p.csv:5:1: time: times must increase strictly");
   const PathsOrError huge = Read("time,x\n0,1.7976931348623157e308\n1e300,-1e300\n");

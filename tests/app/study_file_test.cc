@@ -171,7 +171,7 @@ TEST_CASE("duplicate keys, memory_mb, wrong types and huge values") {
   SUBCASE("an empty file") {
     const auto m = Messages(ParseStudyText("", "e.yaml"));
     REQUIRE(m.size() == 1);
-    CHECK(m[0] == "e.yaml: expected a mapping with truth, process, grid and learners");
+    CHECK(m[0] == "e.yaml: study: expected a mapping with truth, process, grid and learners");
   }
 }
 
