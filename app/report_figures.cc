@@ -88,7 +88,7 @@ std::string LinePlotScript(const LinePlot& plot) {
   bool log_x = false;
   WriteXAxis(o, xs, log_x);
   if (plot.unit_range) o << "set yrange [-0.02:1.02]\n";
-  if (plot.log_y) o << "set logscale y\n";
+  if (plot.log_y) o << "set logscale y\nset format y '%g'\n";
   if (plot.target) {
     o << "set arrow from graph 0, first " << Num(*plot.target) << " to graph 1, first " << Num(*plot.target)
       << " nohead dt 2 lw 1.5 lc rgb '#555555' front\n"

@@ -47,6 +47,7 @@ TEST_CASE("targets and planned lengths, and log y drops values that are not posi
   CHECK(s.find("set arrow from first 750, graph 0 to first 750, graph 1 nohead dt 3 lw 1.5 lc rgb '#D55E00'") !=
         std::string::npos);
   CHECK(s.find("$s1 << EOD\nEOD") != std::string::npos);
+  CHECK(s.find("set logscale y\nset format y '%g'") != std::string::npos);
 }
 
 TEST_CASE("a plot with nothing defined says so instead of failing") {
