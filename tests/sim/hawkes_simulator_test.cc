@@ -9,16 +9,12 @@
 
 #include "sim/hawkes_compensator.h"
 #include "tests/sim/ks_check.h"
+#include "tests/sim/sim_fixtures.h"
 
 namespace locind::sim {
 namespace {
 
-graph::TruthGraph Graph(const std::vector<std::string>& names,
-                        const std::vector<std::pair<int, int>>& edges, std::vector<int> hidden = {}) {
-  graph::Dmg g(names);
-  for (auto [a, b] : edges) g.AddDirected(a, b);
-  return graph::TruthGraph{g, hidden};
-}
+using testing::Graph;
 
 // Three nodes, a cycle plus a loop: spectral radius about 0.62.
 HawkesModel CycleModel() {

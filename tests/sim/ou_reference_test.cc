@@ -7,33 +7,14 @@
 #include <doctest/doctest.h>
 
 #include "sim/ou_transition.h"
+#include "tests/sim/sim_fixtures.h"
 
 namespace locind::sim {
 namespace {
 
-graph::TruthGraph Graph(const std::vector<std::string>& names,
-                        const std::vector<std::pair<int, int>>& edges, std::vector<int> hidden = {}) {
-  graph::Dmg g(names);
-  for (auto [a, b] : edges) g.AddDirected(a, b);
-  return graph::TruthGraph{g, hidden};
-}
-
-// x1 -> x2 -> x3 -> x1 with loops everywhere.
-DiffusionModel Cycle(double coupling = 0.6) {
-  DiffusionModel m = LinearDiffusion(
-      Graph({"x1", "x2", "x3"}, {{0, 0}, {1, 1}, {2, 2}, {0, 1}, {1, 2}, {2, 0}}), 1.0, coupling, 0.7);
-  m.c << 0.5, -0.2, 0.1;
-  m.sigma << 0.7, 1.0, 0.4;
-  m.M(1, 1) = -1.6;
-  return m;
-}
-
-PathData Draw(const DiffusionModel& m, const PathRunOptions& o, uint64_t seed) {
-  graph::RandomStream random(seed);
-  Result<PathData> data = SimulateDiffusion(m, o, random);
-  REQUIRE_MESSAGE(data.ok(), (data.ok() ? "" : data.status().message()));
-  return std::move(data.value());
-}
+using testing::Cycle;
+using testing::Draw;
+using testing::Graph;
 
 Eigen::MatrixXd SampleCovariance(const Eigen::MatrixXd& rows) {
   const Eigen::MatrixXd centred = rows.rowwise() - rows.colwise().mean();
