@@ -35,14 +35,14 @@ sim::DiffusionModel SparseModel(int n, bool tanh) {
   o.nodes = n;
   o.expected_in_degree = 2;
   o.loops = graph::LoopPolicy::kAll;
-  graph::RandomStream random(graph::StreamKey{2, 0, 0, 0});
+  base::RandomStream random(base::StreamKey{2, 0, 0, 0});
   const graph::TruthGraph truth = graph::RandomTruthGraph(o, random);
   return tanh ? sim::TanhDiffusion(truth, 1.0, 0.3, 1.0) : sim::LinearDiffusion(truth, 1.0, 0.3, 1.0);
 }
 
 double Seconds(double a, double b) { return b - a; }
 
-double NormalsOnly(int64_t count, graph::RandomStream& random) {
+double NormalsOnly(int64_t count, base::RandomStream& random) {
   boost::random::normal_distribution<double> normal;
   double sum = 0;
   for (int64_t i = 0; i < count; ++i) sum += normal(random.engine());
@@ -61,7 +61,7 @@ void RunEuler(benchmark::State& state, bool tanh) {
   int64_t total = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     const auto t0 = Clock::now();
     auto data = sim::SimulateDiffusion(model, o, random);
     const auto t1 = Clock::now();
@@ -93,7 +93,7 @@ void BM_ExactTransition(benchmark::State& state) {
   int64_t samples = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     auto data = sim::SimulateDiffusion(model, o, random);
     if (!data.ok()) state.SkipWithError(data.status().message().c_str());
     samples += int64_t(data->samples()) * n;

@@ -10,7 +10,7 @@
 
 #include "graph/equivalence_graph.h"
 #include "graph/latent_projection.h"
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 #include "graph/truth_graph.h"
 #include "tests/graph/brute_force.h"
 #include "tests/graph/graph_fixtures.h"
@@ -20,7 +20,7 @@ namespace {
 using namespace locind::graph;
 
 BitGraph ProjectedGraph(int observed, uint64_t seed) {
-  RandomStream random(seed);
+  base::RandomStream random(seed);
   RandomGraphOptions o;
   o.nodes = observed + 2;
   o.expected_in_degree = 1.5;

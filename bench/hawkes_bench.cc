@@ -39,7 +39,7 @@ sim::HawkesModel SparseModel(int n) {
   o.nodes = n;
   o.expected_in_degree = 2;
   o.loops = graph::LoopPolicy::kNone;
-  graph::RandomStream random(graph::StreamKey{1, 0, 0, 0});
+  base::RandomStream random(base::StreamKey{1, 0, 0, 0});
   const graph::TruthGraph truth = graph::RandomTruthGraph(o, random);
   // Weight 0.25 on in-degree 2 puts the spectral radius near 0.5.
   return sim::ExponentialHawkes(truth, 1.0, 0.25, 2.0);
@@ -48,7 +48,7 @@ sim::HawkesModel SparseModel(int n) {
 double Seconds(double a, double b) { return b - a; }
 
 // Draws 2 * proposals variates as the thinning does; returns a checksum.
-double RngOnly(int64_t proposals, graph::RandomStream& random) {
+double RngOnly(int64_t proposals, base::RandomStream& random) {
   boost::random::exponential_distribution<double> exponential(1.0);
   double sum = 0;
   for (int64_t i = 0; i < proposals; ++i) sum += exponential(random.engine()) + random.Uniform();
@@ -67,7 +67,7 @@ void BM_HawkesThinning(benchmark::State& state) {
   int64_t events = 0, proposals = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     const auto t0 = Clock::now();
     auto data = sim::SimulateHawkes(model, o, random);
     const auto t1 = Clock::now();
@@ -97,7 +97,7 @@ void BM_HawkesCluster(benchmark::State& state) {
   int64_t events = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     auto data = sim::SimulateHawkes(model, o, random);
     if (!data.ok()) state.SkipWithError(data.status().message().c_str());
     events += stats.events;
@@ -108,7 +108,7 @@ BENCHMARK(BM_HawkesCluster)->Arg(10)->Arg(50)->Unit(benchmark::kMillisecond);
 
 // Ogata thinning without the recursion: every intensity is recomputed from
 // the whole history at every proposal.
-int64_t NaiveThinning(const sim::HawkesModel& m, double horizon, graph::RandomStream& random) {
+int64_t NaiveThinning(const sim::HawkesModel& m, double horizon, base::RandomStream& random) {
   const int n = m.nodes();
   std::vector<std::pair<double, int>> history;
   boost::random::exponential_distribution<double> exponential(1.0);
@@ -149,7 +149,7 @@ void BM_NaiveThinning(benchmark::State& state) {
   int64_t events = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     events += NaiveThinning(model, horizon, random);
   }
   state.counters["ns_per_event"] =
@@ -167,7 +167,7 @@ void BM_RecursiveThinning(benchmark::State& state) {
   int64_t events = 0;
   uint64_t seed = 0;
   for (auto _ : state) {
-    graph::RandomStream random(++seed);
+    base::RandomStream random(++seed);
     benchmark::DoNotOptimize(sim::SimulateHawkes(model, o, random));
     events += stats.events;
   }

@@ -12,17 +12,17 @@
 #include <benchmark/benchmark.h>
 
 #include "graph/latent_projection.h"
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 #include "graph/truth_graph.h"
-#include "learners/learner_registry.h"
-#include "learners/oracle_test.h"
+#include "learners/methods/learner_registry.h"
+#include "learners/independence/oracle_test.h"
 
 namespace {
 
 using namespace locind;
 
 graph::TruthGraph Truth(int observed, uint64_t seed) {
-  graph::RandomStream random(seed);
+  base::RandomStream random(seed);
   graph::RandomGraphOptions o;
   o.nodes = observed + 2;
   o.expected_in_degree = 1.5;

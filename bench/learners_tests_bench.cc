@@ -17,8 +17,8 @@
 #include <memory>
 
 #include "graph/truth_graph.h"
-#include "learners/drift_test.h"
-#include "learners/hawkes_lr_test.h"
+#include "learners/independence/drift_test.h"
+#include "learners/independence/hawkes_lr_test.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
 
@@ -38,7 +38,7 @@ graph::TruthGraph RandomTruth(int nodes, uint64_t seed) {
   o.nodes = nodes;
   o.expected_in_degree = 1.5;
   o.loops = graph::LoopPolicy::kAll;
-  graph::RandomStream random(graph::StreamKey{seed, 0, 0, 0});
+  base::RandomStream random(base::StreamKey{seed, 0, 0, 0});
   return graph::RandomTruthGraph(o, random);
 }
 
@@ -49,7 +49,7 @@ sim::EventData HawkesData() {
   sim::HawkesRunOptions o;
   o.horizon = 100000 / rates.sum();
   o.burn_in = 50;
-  graph::RandomStream random(graph::StreamKey{1, 0, 0, 1});
+  base::RandomStream random(base::StreamKey{1, 0, 0, 1});
   return sim::SimulateHawkes(model, o, random).value();
 }
 
@@ -97,7 +97,7 @@ sim::PathData DiffusionData() {
   o.interval = 0.1;
   o.method = sim::PathMethod::kExact;
   o.burn_in = 10;
-  graph::RandomStream random(graph::StreamKey{2, 0, 0, 1});
+  base::RandomStream random(base::StreamKey{2, 0, 0, 1});
   return sim::SimulateDiffusion(model, o, random).value();
 }
 

@@ -3,7 +3,7 @@
 
 Reads replicates.csv of a finished single-process run, takes each unit's
 cost from its timing columns (one simulation, then every learner with its
-scoring), and replays the two assignments of app/runner_mpi.h on N ranks
+scoring), and replays the two assignments of app/running/runner_mpi.h on N ranks
 with one thread each:
 
   static    unit i (cell-major order) on rank i mod N, as --part does;

@@ -13,10 +13,10 @@
 #include <chrono>
 #include <filesystem>
 
-#include "app/runner.h"
-#include "app/runner_truths.h"
-#include "app/study_file.h"
-#include "app/study_grid.h"
+#include "app/running/runner.h"
+#include "app/study/study_truths.h"
+#include "app/study/study_file.h"
+#include "app/study/study_grid.h"
 
 namespace {
 

@@ -8,7 +8,7 @@
 
 #include "graph/dmg.h"
 #include "graph/edge.h"
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::graph {
 

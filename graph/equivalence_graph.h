@@ -5,7 +5,7 @@
 // the test suite re-checks uniqueness on every graph with 3 nodes). The equivalence graph is that maximal graph with each edge marked
 // solid (in every member) or dashed (missing from some member).
 //
-// How it is computed (DESIGN.md F2, F4, F5): an absent edge e belongs to the
+// How it is computed (docs/theory.md F2, F4, F5): an absent edge e belongs to the
 // maximal graph of G iff G + e has the separations of G, and only pairs that
 // no set separates can carry an edge; an edge e of the maximal graph N is
 // dashed iff N - e has the separations of N. Each check re-searches only the
@@ -17,7 +17,7 @@
 #include "graph/bit_graph.h"
 #include "graph/dmg.h"
 #include "graph/edge.h"
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::graph {
 

@@ -5,7 +5,7 @@
 // node in H; a <-> b (a != b) when a walk between them has arrowheads at both
 // ends, no collider and every inner node in H. When such a walk runs from a
 // back to a, the projection gets the loop a -> a: a bidirected loop would have
-// exactly the separations of a directed one (DESIGN.md F3). The projection
+// exactly the separations of a directed one (docs/theory.md F3). The projection
 // keeps every mu-separation among observed nodes.
 #pragma once
 
@@ -13,7 +13,7 @@
 
 #include "graph/bit_graph.h"
 #include "graph/dmg.h"
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::graph {
 

@@ -5,7 +5,7 @@
 
 #include "graph/bit_graph.h"
 #include "graph/dmg.h"
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::graph {
 

@@ -38,7 +38,7 @@ bool MuSeparated(const BitGraph& g, int a, int b, Mask c);
 bool MuSeparated(const BitGraph& g, Mask a_set, Mask b_set, Mask c);
 
 // True when some C (not containing a) separates b from a. By Mogensen &
-// Hansen (2020) it is enough to try C = An({a, b}) \ {a} (DESIGN.md F1).
+// Hansen (2020) it is enough to try C = An({a, b}) \ {a} (docs/theory.md F1).
 bool Separable(const BitGraph& g, int a, int b);
 
 }  // namespace locind::graph

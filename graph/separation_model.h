@@ -13,7 +13,7 @@
 #include "graph/bit_graph.h"
 #include "graph/edge.h"
 #include "graph/mu_separation.h"
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::graph {
 

@@ -42,7 +42,7 @@ Status Validate(const RandomGraphOptions& o) {
 
 namespace {
 
-std::vector<int> DrawHidden(const RandomGraphOptions& o, RandomStream& random) {
+std::vector<int> DrawHidden(const RandomGraphOptions& o, base::RandomStream& random) {
   std::vector<int> hidden = o.hidden_list;
   if (hidden.empty() && o.hidden_count > 0) {
     // Partial Fisher-Yates shuffle: the first hidden_count entries.
@@ -76,7 +76,7 @@ std::vector<std::string> RoleNames(int nodes, const std::vector<int>& hidden) {
 
 }  // namespace
 
-TruthGraph RandomTruthGraph(const RandomGraphOptions& o, RandomStream& random) {
+TruthGraph RandomTruthGraph(const RandomGraphOptions& o, base::RandomStream& random) {
   const double p = (o.expected_in_degree >= 0 && o.nodes > 1)
                        ? o.expected_in_degree / (o.nodes - 1)
                        : o.edge_probability;

@@ -6,8 +6,8 @@
 #include <vector>
 
 #include "graph/dmg.h"
-#include "graph/random_stream.h"
-#include "graph/status.h"
+#include "base/random_stream.h"
+#include "base/status.h"
 
 namespace locind::graph {
 
@@ -40,6 +40,6 @@ Status Validate(const RandomGraphOptions& options);
 
 // Draws a graph. Observed nodes are named x1, x2, ... and hidden ones h1,
 // h2, ... in index order. REQUIRES: Validate(options).ok().
-TruthGraph RandomTruthGraph(const RandomGraphOptions& options, RandomStream& random);
+TruthGraph RandomTruthGraph(const RandomGraphOptions& options, base::RandomStream& random);
 
 }  // namespace locind::graph

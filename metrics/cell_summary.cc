@@ -2,7 +2,7 @@
 
 namespace locind::metrics {
 
-CellSummary Summarize(const std::vector<ReplicateRecord>& records, graph::RandomStream& random,
+CellSummary Summarize(const std::vector<ReplicateRecord>& records, base::RandomStream& random,
                       int bootstrap_resamples) {
   CellSummary s;
   s.replicates = static_cast<int>(records.size());

@@ -10,7 +10,7 @@
 
 #include <vector>
 
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 #include "metrics/intervals.h"
 #include "metrics/replicate_score.h"
 
@@ -40,7 +40,7 @@ struct CellSummary {
 };
 
 // `random` drives the bootstrap resamples (key it by study seed and cell).
-CellSummary Summarize(const std::vector<ReplicateRecord>& records, graph::RandomStream& random,
+CellSummary Summarize(const std::vector<ReplicateRecord>& records, base::RandomStream& random,
                       int bootstrap_resamples = 2000);
 
 }  // namespace locind::metrics

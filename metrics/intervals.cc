@@ -33,7 +33,7 @@ Interval WilsonInterval(int64_t successes, int64_t trials, double confidence) {
 }
 
 Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
-                               graph::RandomStream& random, double confidence) {
+                               base::RandomStream& random, double confidence) {
   if (values.empty()) return {kNaN, kNaN, kNaN};
   const size_t n = values.size();
   double sum = 0;

@@ -12,7 +12,7 @@
 #include <cstdint>
 #include <vector>
 
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 
 namespace locind::metrics {
 
@@ -28,6 +28,6 @@ Interval WilsonInterval(int64_t successes, int64_t trials, double confidence = 0
 // Mean of `values` with a percentile bootstrap interval from `resamples`
 // resamples. A single value gives a zero-width interval.
 Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
-                               graph::RandomStream& random, double confidence = 0.95);
+                               base::RandomStream& random, double confidence = 0.95);
 
 }  // namespace locind::metrics

@@ -7,7 +7,7 @@
 
 #include <boost/math/distributions/beta.hpp>
 
-#include "learners/oracle_test.h"
+#include "learners/independence/oracle_test.h"
 
 namespace locind::metrics {
 

@@ -15,7 +15,7 @@
 #include <vector>
 
 #include "graph/dmg.h"
-#include "learners/learner.h"
+#include "learners/methods/learner.h"
 
 namespace locind::metrics {
 

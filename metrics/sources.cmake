@@ -1,7 +1,10 @@
-list(APPEND LOCIND_CORE_SOURCES
-  metrics/cell_summary.cc
-  metrics/intervals.cc
-  metrics/pvalue_calibration.cc
-  metrics/replicate_score.cc
-  metrics/truth_class.cc
+# locind_metrics: scoring learned graphs against the true class; aggregation.
+locind_layer(locind_metrics
+  DEPS locind_methods
+  SOURCES
+    metrics/cell_summary.cc
+    metrics/intervals.cc
+    metrics/pvalue_calibration.cc
+    metrics/replicate_score.cc
+    metrics/truth_class.cc
 )

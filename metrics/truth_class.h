@@ -12,7 +12,7 @@
 #include "graph/dmg.h"
 #include "graph/edge.h"
 #include "graph/equivalence_graph.h"
-#include "graph/status.h"
+#include "base/status.h"
 #include "graph/truth_graph.h"
 
 namespace locind::metrics {

@@ -10,6 +10,9 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/install-deps.sh
 
+echo "== Layers: every #include points down (scripts/check_includes.py)"
+python3 scripts/check_includes.py
+
 echo "== Release build and tests"
 bash scripts/build.sh release
 ctest --test-dir build/release -j2 --output-on-failure

@@ -85,7 +85,7 @@ Result<Grid> MakeGrid(const PathRunOptions& o, int nodes) {
 // Advances x over one observation interval.
 class Stepper {
  public:
-  Stepper(const DiffusionModel& model, const Grid& grid, double h, graph::RandomStream& random)
+  Stepper(const DiffusionModel& model, const Grid& grid, double h, base::RandomStream& random)
       : model_(model), grid_(grid), h_(h), random_(random), drift_(model),
         dw_(model.nodes()), f_(model.nodes()), g_(model.nodes()) {}
 
@@ -119,7 +119,7 @@ class Stepper {
   const DiffusionModel& model_;
   const Grid& grid_;
   double h_;
-  graph::RandomStream& random_;
+  base::RandomStream& random_;
   SparseDrift drift_;
   boost::random::normal_distribution<double> normal_;
   Eigen::VectorXd dw_, f_, g_;
@@ -130,7 +130,7 @@ class Stepper {
 }  // namespace
 
 Result<PathData> SimulateDiffusion(const DiffusionModel& model, const PathRunOptions& options,
-                                   graph::RandomStream& random) {
+                                   base::RandomStream& random) {
   if (Status s = Validate(model); !s.ok()) return s;
   Result<Grid> grid = MakeGrid(options, model.nodes());
   if (!grid.ok()) return grid.status();

@@ -17,8 +17,8 @@
 
 #include <Eigen/Dense>
 
-#include "graph/random_stream.h"
-#include "graph/status.h"
+#include "base/random_stream.h"
+#include "base/status.h"
 #include "sim/diffusion_model.h"
 #include "sim/path_data.h"
 
@@ -42,7 +42,7 @@ struct PathRunOptions {
 // options, an unstable model, the exact method with a non-linear drift, or a
 // state that leaves the finite numbers.
 Result<PathData> SimulateDiffusion(const DiffusionModel& model, const PathRunOptions& options,
-                                   graph::RandomStream& random);
+                                   base::RandomStream& random);
 
 const char* PathMethodName(PathMethod method);
 

@@ -38,7 +38,7 @@ std::vector<std::vector<Offspring>> BuildOffspring(const HawkesModel& model) {
 }
 
 // A delay drawn from the normalised kernel density.
-double DrawDelay(const Offspring& o, graph::RandomStream& random) {
+double DrawDelay(const Offspring& o, base::RandomStream& random) {
   const Kernel& k = *o.kernel;
   if (k.family == KernelFamily::kDelayedGamma) {
     boost::random::gamma_distribution<double> gamma(k.shape, 1.0 / k.rate);
@@ -63,7 +63,7 @@ struct Event {
 }  // namespace
 
 Result<NodeTimes> SimulateByClusters(const HawkesModel& model, const HawkesRunOptions& options,
-                                     graph::RandomStream& random) {
+                                     base::RandomStream& random) {
   std::vector<std::vector<Offspring>> offspring = BuildOffspring(model);
   const double start = -options.burn_in;
   const double length = options.horizon - start;

@@ -6,7 +6,7 @@
 
 #include <vector>
 
-#include "graph/status.h"
+#include "base/status.h"
 #include "sim/event_data.h"
 #include "sim/hawkes_model.h"
 

@@ -6,8 +6,8 @@
 
 #include <vector>
 
-#include "graph/random_stream.h"
-#include "graph/status.h"
+#include "base/random_stream.h"
+#include "base/status.h"
 #include "sim/hawkes_model.h"
 #include "sim/hawkes_simulator.h"
 
@@ -18,11 +18,11 @@ using NodeTimes = std::vector<std::vector<double>>;
 // Ogata thinning with the exponential intensity recursion.
 // REQUIRES: every kernel of an exponential family.
 Result<NodeTimes> SimulateByThinning(const HawkesModel& model, const HawkesRunOptions& options,
-                                     graph::RandomStream& random);
+                                     base::RandomStream& random);
 
 // Immigrant-offspring construction. REQUIRES: linear link.
 Result<NodeTimes> SimulateByClusters(const HawkesModel& model, const HawkesRunOptions& options,
-                                     graph::RandomStream& random);
+                                     base::RandomStream& random);
 
 // The message for a reached event cap.
 Status EventCapReached(const HawkesRunOptions& options, double time);

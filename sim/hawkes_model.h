@@ -28,7 +28,7 @@
 
 #include <Eigen/Dense>
 
-#include "graph/status.h"
+#include "base/status.h"
 #include "graph/truth_graph.h"
 
 namespace locind::sim {

@@ -67,7 +67,7 @@ Status EventCapReached(const HawkesRunOptions& options, double time) {
 }
 
 Result<EventData> SimulateHawkes(const HawkesModel& model, const HawkesRunOptions& options,
-                                 graph::RandomStream& random) {
+                                 base::RandomStream& random) {
   if (Status s = Validate(model); !s.ok()) return s;
   if (Status s = ValidateOptions(options); !s.ok()) return s;
   if (!options.allow_nonstationary) {

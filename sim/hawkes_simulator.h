@@ -18,8 +18,8 @@
 
 #include <cstdint>
 
-#include "graph/random_stream.h"
-#include "graph/status.h"
+#include "base/random_stream.h"
+#include "base/status.h"
 #include "sim/event_data.h"
 #include "sim/hawkes_model.h"
 
@@ -50,7 +50,7 @@ struct HawkesRunOptions {
 // options, a refused non-stationary model, a method that cannot handle the
 // model, or when the event cap is reached.
 Result<EventData> SimulateHawkes(const HawkesModel& model, const HawkesRunOptions& options,
-                                 graph::RandomStream& random);
+                                 base::RandomStream& random);
 
 const char* HawkesMethodName(HawkesMethod method);
 

@@ -135,7 +135,7 @@ Recursion BuildRecursion(const HawkesModel& model) {
 class LinearThinning {
  public:
   LinearThinning(const HawkesModel& model, const HawkesRunOptions& options,
-                 graph::RandomStream& random)
+                 base::RandomStream& random)
       : options_(options), random_(random), rec_(BuildRecursion(model)), n_(model.nodes()),
         base_pick_(model.baseline) {
     for (double mu : model.baseline) base_total_ += mu;
@@ -245,7 +245,7 @@ class LinearThinning {
   }
 
   const HawkesRunOptions& options_;
-  graph::RandomStream& random_;
+  base::RandomStream& random_;
   Recursion rec_;
   int n_;
   AliasTable base_pick_;
@@ -269,7 +269,7 @@ double ApplyLink(Link link, double x) {
 class NonlinearThinning {
  public:
   NonlinearThinning(const HawkesModel& model, const HawkesRunOptions& options,
-                    graph::RandomStream& random)
+                    base::RandomStream& random)
       : model_(model), options_(options), random_(random), rec_(BuildRecursion(model)),
         n_(model.nodes()), groups_(rec_.decay.size()) {
     excite_.assign(n_ * groups_, 0.0);
@@ -348,7 +348,7 @@ class NonlinearThinning {
 
   const HawkesModel& model_;
   const HawkesRunOptions& options_;
-  graph::RandomStream& random_;
+  base::RandomStream& random_;
   Recursion rec_;
   int n_;
   size_t groups_;
@@ -362,7 +362,7 @@ class NonlinearThinning {
 }  // namespace
 
 Result<NodeTimes> SimulateByThinning(const HawkesModel& model, const HawkesRunOptions& options,
-                                     graph::RandomStream& random) {
+                                     base::RandomStream& random) {
   if (model.link == Link::kLinear) return LinearThinning(model, options, random).Run(model);
   return NonlinearThinning(model, options, random).Run();
 }

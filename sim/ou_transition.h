@@ -11,7 +11,7 @@
 
 #include <Eigen/Dense>
 
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::sim {
 

@@ -9,7 +9,7 @@
 
 #include <Eigen/Dense>
 
-#include "graph/status.h"
+#include "base/status.h"
 
 namespace locind::sim {
 

@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "app/command.h"
+#include "app/cli/command.h"
 
 namespace locind::testing {
 

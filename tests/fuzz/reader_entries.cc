@@ -3,11 +3,11 @@
 #include <sstream>
 #include <variant>
 
-#include "app/event_csv.h"
-#include "app/graph_file.h"
-#include "app/input_error.h"
-#include "app/path_csv.h"
-#include "app/study_file.h"
+#include "app/io/event_csv.h"
+#include "app/io/graph_file.h"
+#include "app/io/input_error.h"
+#include "app/io/path_csv.h"
+#include "app/study/study_file.h"
 
 namespace locind::fuzz {
 namespace {

@@ -151,7 +151,7 @@ inline uint64_t ToCode(const BruteGraph& g) {
   return code;
 }
 
-// The maximal graph by DESIGN.md F2: add every absent edge whose addition
+// The maximal graph by docs/theory.md F2: add every absent edge whose addition
 // keeps the complete list of separations.
 inline BruteGraph BruteMaximal(const BruteGraph& g) {
   const auto base = SeparationList(g);
@@ -165,7 +165,7 @@ inline BruteGraph BruteMaximal(const BruteGraph& g) {
   return out;
 }
 
-// Dashed edges of the maximal graph by DESIGN.md F4, in AllEdges order.
+// Dashed edges of the maximal graph by docs/theory.md F4, in AllEdges order.
 inline std::vector<bool> BruteDashed(const BruteGraph& maximal) {
   const auto base = SeparationList(maximal);
   std::vector<bool> out;

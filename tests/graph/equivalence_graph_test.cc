@@ -105,7 +105,7 @@ TEST_CASE("all 4,096 graphs on 3 nodes: classes, maximal graphs, marks, equivale
 }
 
 TEST_CASE("random graphs on 4 to 6 nodes agree with the brute force") {
-  RandomStream random(31);
+  base::RandomStream random(31);
   const int total = 2000;
   for (int trial = 0; trial < total; ++trial) {
     const int n = 4 + trial % 3;

@@ -3,7 +3,7 @@
 #pragma once
 
 #include "graph/bit_graph.h"
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 #include "graph/truth_graph.h"
 #include "tests/graph/brute_force.h"
 
@@ -32,7 +32,7 @@ inline graph::BitGraph FromBrute(const BruteGraph& g) {
 // A random mixed graph on `nodes` nodes: loops with probability 1/2 when
 // `loops`, directed edges with probability p, bidirected with probability q.
 inline graph::BitGraph RandomMixedGraph(int nodes, double p, double q, bool loops,
-                                        graph::RandomStream& random) {
+                                        base::RandomStream& random) {
   graph::RandomGraphOptions o;
   o.nodes = nodes;
   o.edge_probability = p;

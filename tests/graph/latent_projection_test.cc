@@ -14,7 +14,7 @@ constexpr EdgeKind B = EdgeKind::kBidirected;
 TEST_CASE("worked example: a hidden common parent gives a <-> b and two loops") {
   // h -> a, h -> b with h hidden. The walk a <- h -> b has arrowheads at both
   // ends and a non-collider h, so a <-> b. The walk a <- h -> a (the edge used
-  // twice) gives the loop a -> a (DESIGN.md F3), and likewise b -> b.
+  // twice) gives the loop a -> a (docs/theory.md F3), and likewise b -> b.
   Dmg g({"a", "b", "h"});
   g.AddDirected(2, 0);
   g.AddDirected(2, 1);
@@ -55,7 +55,7 @@ TEST_CASE("worked example: a hidden collider adds nothing") {
 }
 
 TEST_CASE("projection with nothing hidden is the identity") {
-  RandomStream random(21);
+  base::RandomStream random(21);
   for (int trial = 0; trial < 50; ++trial) {
     const BitGraph g = testing::RandomMixedGraph(5, 0.3, 0.2, true, random);
     CHECK(LatentProjection(g, 0) == g);
@@ -63,8 +63,8 @@ TEST_CASE("projection with nothing hidden is the identity") {
 }
 
 TEST_CASE("F3: the projection keeps every separation among observed nodes") {
-  // DESIGN.md F3, checked against the brute force on the full graph.
-  RandomStream random(22);
+  // docs/theory.md F3, checked against the brute force on the full graph.
+  base::RandomStream random(22);
   for (int trial = 0; trial < 400; ++trial) {
     const int n = 4 + trial % 3;
     graph::RandomGraphOptions o;

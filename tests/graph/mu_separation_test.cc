@@ -70,7 +70,7 @@ TEST_CASE("set separation decomposes into pairs") {
 }
 
 TEST_CASE("engine agrees with the definition-level brute force on random graphs") {
-  RandomStream random(11);
+  base::RandomStream random(11);
   int checked = 0;
   for (int trial = 0; trial < 300; ++trial) {
     const int n = 3 + trial % 4;
@@ -89,8 +89,8 @@ TEST_CASE("engine agrees with the definition-level brute force on random graphs"
 }
 
 TEST_CASE("F1: some set separates b from a iff An({a,b}) minus a does") {
-  // DESIGN.md F1 (Mogensen & Hansen 2020, Ann. Statist. 48(1)).
-  RandomStream random(12);
+  // docs/theory.md F1 (Mogensen & Hansen 2020, Ann. Statist. 48(1)).
+  base::RandomStream random(12);
   for (int trial = 0; trial < 300; ++trial) {
     const int n = 3 + trial % 3;
     const BitGraph g = testing::RandomMixedGraph(n, 0.35, 0.15, trial % 3 != 0, random);

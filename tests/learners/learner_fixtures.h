@@ -8,7 +8,7 @@
 #include "graph/equivalence_graph.h"
 #include "graph/latent_projection.h"
 #include "graph/truth_graph.h"
-#include "learners/learner.h"
+#include "learners/methods/learner.h"
 
 namespace locind::testing {
 
@@ -45,7 +45,7 @@ inline graph::TruthGraph SuiteTruth(uint64_t seed, int i) {
   o.nodes = observed + o.hidden_count;
   o.edge_probability = 0.15 + 0.05 * ((i / 12) % 5);
   o.loops = (i / 60) % 2 == 0 ? graph::LoopPolicy::kRandom : graph::LoopPolicy::kNone;
-  graph::RandomStream random(graph::StreamKey{seed, 0, static_cast<uint64_t>(i), 0});
+  base::RandomStream random(base::StreamKey{seed, 0, static_cast<uint64_t>(i), 0});
   return graph::RandomTruthGraph(o, random);
 }
 

@@ -38,7 +38,7 @@ TEST_CASE("no trials gives an undefined interval") {
 }
 
 TEST_CASE("bootstrap interval of a mean") {
-  graph::RandomStream random(3);
+  base::RandomStream random(3);
   // A constant sample has a zero-width interval.
   const Interval constant = BootstrapMeanInterval({2.5, 2.5, 2.5, 2.5}, 500, random);
   CHECK(constant.estimate == 2.5);
@@ -56,7 +56,7 @@ TEST_CASE("bootstrap interval of a mean") {
   CHECK(wide.low < 199.5);
   CHECK(wide.high > 199.5);
   // Same stream key, same interval.
-  graph::RandomStream again(3);
+  base::RandomStream again(3);
   BootstrapMeanInterval({2.5, 2.5, 2.5, 2.5}, 500, again);
   const Interval repeat = BootstrapMeanInterval(values, 4000, again);
   CHECK(repeat.low == wide.low);

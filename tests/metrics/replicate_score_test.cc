@@ -82,7 +82,7 @@ TEST_CASE("cell summaries pool counts and skip failed replicates") {
   records[1].score = ScoreGraph(tc, graph::Dmg(tc.projected.names()));
   records[1].tests = 20;
   records[2].ok = false;
-  graph::RandomStream random(9);
+  base::RandomStream random(9);
   const CellSummary s = Summarize(records, random, 200);
   CHECK(s.replicates == 3);
   CHECK(s.failed == 1);

@@ -1,5 +1,5 @@
 #!/usr/bin/env python3
-"""Outside reference for mu-separation and latent projection (DESIGN.md F7).
+"""Outside reference for mu-separation and latent projection (docs/theory.md F7).
 
 For a directed graph D, build the DAG with a node (v, t) for t = 0..T and an
 edge (u, s) -> (v, t) for every u -> v in D and every s < t. With

@@ -45,7 +45,7 @@ TEST_CASE("tanh drift: value, simulation with sigma = 0 is the Euler recursion")
   const PathData d = Draw(m, o, 6);
   CHECK(d.values(1, 1) == doctest::Approx(x(1) + 0.01 * f(1)).epsilon(1e-12));
   o.method = PathMethod::kExact;
-  graph::RandomStream random(1);
+  base::RandomStream random(1);
   Result<PathData> r = SimulateDiffusion(m, o, random);
   REQUIRE_FALSE(r.ok());
   CHECK(r.status().message().find("linear drift") != std::string::npos);
@@ -68,7 +68,7 @@ TEST_CASE("grid, hidden columns dropped, reproducibility") {
   CHECK(Draw(m, o, 7).values == d.values);
   CHECK(Draw(m, o, 8).values != d.values);
   o.interval = 0.015;
-  graph::RandomStream random(1);
+  base::RandomStream random(1);
   Result<PathData> r = SimulateDiffusion(m, o, random);
   REQUIRE_FALSE(r.ok());
   CHECK(r.status().message().find("not a multiple of the step") != std::string::npos);
@@ -80,7 +80,7 @@ TEST_CASE("stability refusals name the cause") {
   REQUIRE_FALSE(s.ok());
   CHECK(s.message().find("unstable: the drift matrix has an eigenvalue with real part") !=
         std::string::npos);
-  graph::RandomStream random(1);
+  base::RandomStream random(1);
   CHECK_FALSE(SimulateDiffusion(m, PathRunOptions(), random).ok());
   // No loop on x2: no self term, so x2 is a random walk.
   m = LinearDiffusion(Graph({"x1", "x2"}, {{0, 0}, {0, 1}}), 1.0, 0.5, 1.0);

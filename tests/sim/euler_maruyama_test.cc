@@ -8,7 +8,7 @@
 
 #include <doctest/doctest.h>
 
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 
 #include <boost/random/normal_distribution.hpp>
 
@@ -60,7 +60,7 @@ struct Errors {
 // unbiased because E X(T) = X0 e^{lambda T} exactly, and has far less noise
 // than Higham's independent samples.
 Errors Measure(int paths, uint64_t seed) {
-  graph::RandomStream random(seed);
+  base::RandomStream random(seed);
   boost::random::normal_distribution<double> normal;
   const std::vector<int> ratios = {1, 2, 4, 8, 16};
   Errors e;

@@ -35,7 +35,7 @@ HawkesModel MixedModel() {
 }
 
 EventData Draw(const HawkesModel& m, HawkesRunOptions o, uint64_t seed) {
-  graph::RandomStream random(seed);
+  base::RandomStream random(seed);
   Result<EventData> data = SimulateHawkes(m, o, random);
   REQUIRE_MESSAGE(data.ok(), (data.ok() ? "" : data.status().message()));
   return std::move(data.value());
@@ -256,7 +256,7 @@ TEST_CASE("refusals: non-stationary, event cap, method mismatch, bad options") {
   const graph::TruthGraph truth = Graph({"x"}, {{0, 0}});
   HawkesModel m = ExponentialHawkes(truth, 1.0, 1.3, 1.0);
   HawkesRunOptions o;
-  graph::RandomStream random(1);
+  base::RandomStream random(1);
   Result<EventData> r = SimulateHawkes(m, o, random);
   REQUIRE_FALSE(r.ok());
   CHECK(r.status().message().find("not stationary") != std::string::npos);

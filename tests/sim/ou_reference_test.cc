@@ -80,7 +80,7 @@ void TransitionMoments(const DiffusionModel& m, PathMethod method, double step, 
   o.initial = x0;
   const int draws = 20000;
   Eigen::MatrixXd ends(draws, m.nodes());
-  graph::RandomStream random(seed);
+  base::RandomStream random(seed);
   for (int i = 0; i < draws; ++i) {
     Result<PathData> d = SimulateDiffusion(m, o, random);
     if (!d.ok() || d->samples() != 2) FAIL("transition draw failed");

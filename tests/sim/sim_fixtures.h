@@ -8,7 +8,7 @@
 #include <utility>
 #include <vector>
 
-#include "graph/random_stream.h"
+#include "base/random_stream.h"
 #include "graph/truth_graph.h"
 #include "sim/diffusion_simulator.h"
 
@@ -32,7 +32,7 @@ inline sim::DiffusionModel Cycle(double coupling = 0.6) {
 }
 
 inline sim::PathData Draw(const sim::DiffusionModel& m, const sim::PathRunOptions& o, uint64_t seed) {
-  graph::RandomStream random(seed);
+  base::RandomStream random(seed);
   Result<sim::PathData> data = sim::SimulateDiffusion(m, o, random);
   REQUIRE_MESSAGE(data.ok(), (data.ok() ? "" : data.status().message()));
   return std::move(data.value());

@@ -1,0 +1,256 @@
+// locind learn: run a learning method on data or on the oracle of a graph.
+//
+//   learn --methods                                  name<TAB>description per method
+//   learn DATA.csv --method NAME [--test NAME] [--level 0.05] [--out DIR] [--json]
+//   learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]
+//
+// DATA.csv is an event file (header "time,process") or a path file (header
+// "time,<names>"); the test defaults to hawkes-lr for events and drift-f for
+// paths. The learned graph is printed (graph file format plus the dashed
+// edges and a cost line, or with --json the shape of `locind graph class
+// --json`). With --out the directory receives graph.json, graph.dot,
+// graph.svg and tests.csv (one row per test made).
+#include <boost/program_options.hpp>
+#include <filesystem>
+#include <fstream>
+#include <memory>
+#include <sstream>
+
+#include "app/io/atomic_file.h"
+#include "base/number_format.h"
+#include "app/cli/command.h"
+#include "app/cli/command_guard.h"
+#include "app/study/test_choice.h"
+#include "app/io/event_csv.h"
+#include "app/io/graph_file.h"
+#include "app/io/graph_json.h"
+#include "app/io/path_csv.h"
+#include "app/io/svg_render.h"
+#include "graph/dot_format.h"
+#include "learners/independence/drift_test.h"
+#include "learners/independence/hawkes_features.h"
+#include "learners/independence/hawkes_lr_test.h"
+#include "learners/methods/learner_registry.h"
+#include "learners/independence/oracle_test.h"
+
+namespace locind::app {
+namespace {
+
+namespace po = boost::program_options;
+using learners::LearnResult;
+
+struct LearnOptions {
+  std::string data;    // DATA.csv, or empty
+  std::string oracle;  // GRAPH.yaml, or empty
+  std::string method;
+  std::string test;    // empty: the default for the data kind
+  double level = 0.05;
+  int screening_size = 1;
+  double penalty = -1;
+  std::string out;     // output directory, or empty
+  bool json = false;
+  bool list = false;
+};
+
+LearnOptions ParseOptions(const std::vector<std::string>& args) {
+  LearnOptions o;
+  po::options_description d("locind learn");
+  d.add_options()("methods", "list the methods")("oracle", po::value(&o.oracle), "graph file")(
+      "method", po::value(&o.method), "method name")("test", po::value(&o.test), "test name")(
+      "level", po::value(&o.level), "significance level")(
+      "size", po::value(&o.screening_size), "screen: extra processes in C besides b")(
+      "penalty", po::value(&o.penalty), "penalized-fit: L1 weight")(
+      "out", po::value(&o.out), "output directory")("json", "print JSON")(
+      "data", po::value(&o.data), "data file");
+  po::positional_options_description positional;
+  positional.add("data", 1);
+  po::variables_map vm;
+  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
+  po::notify(vm);
+  o.json = vm.count("json") > 0;
+  o.list = vm.count("methods") > 0;
+  if (o.list) return o;
+  if (o.data.empty() == o.oracle.empty()) {
+    throw UsageError{"give either DATA.csv or --oracle GRAPH.yaml"};
+  }
+  if (o.method.empty()) {
+    throw UsageError{"--method is required (locind learn --methods lists them)"};
+  }
+  if (!(o.level > 0 && o.level < 1)) throw UsageError{"--level must lie strictly between 0 and 1"};
+  if (o.screening_size < 0) throw UsageError{"--size must be at least 0"};
+  return o;
+}
+
+// The data of a run and the test built on it (either may be empty).
+struct Inputs {
+  std::unique_ptr<learners::IndependenceTest> test;
+  std::unique_ptr<sim::EventData> events;
+  std::unique_ptr<sim::PathData> paths;
+};
+
+void LoadEvents(const LearnOptions& o, Inputs& in) {
+  EventsOrError read = ReadEventCsvFile(o.data);
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
+  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test +
+                     "' for event data (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
+  }
+  auto features =
+      learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
+  if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
+  in.test = std::make_unique<learners::HawkesLrTest>(
+      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
+}
+
+void LoadPaths(const LearnOptions& o, Inputs& in) {
+  PathsOrError read = ReadPathCsvFile(o.data);
+  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
+  const std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
+  if (!options) {
+    throw UsageError{"unknown test '" + o.test + "' for path data (drift-f, drift-robust-wald)"};
+  }
+  auto made = learners::DriftTest::Create(*in.paths, *options);
+  if (!made.ok()) throw InputError{o.data, 0, 0, "", made.status().message()};
+  in.test = std::make_unique<learners::DriftTest>(std::move(made.value()));
+}
+
+Inputs LoadInputs(const LearnOptions& o) {
+  Inputs in;
+  if (!o.oracle.empty()) {
+    if (!o.test.empty() && o.test != "oracle") {
+      throw UsageError{"--oracle runs the oracle test only"};
+    }
+    GraphOrError read = ReadGraphFile(o.oracle);
+    if (auto* e = std::get_if<InputError>(&read)) throw *e;
+    Result<learners::OracleTest> oracle =
+        learners::OracleTest::FromTruth(std::get<graph::TruthGraph>(read));
+    if (!oracle.ok()) throw InputError{o.oracle, 0, 0, "", oracle.status().message()};
+    in.test = std::make_unique<learners::OracleTest>(std::move(oracle.value()));
+    return in;
+  }
+  if (LooksLikeEventFile(o.data)) {
+    LoadEvents(o, in);
+  } else {
+    LoadPaths(o, in);
+  }
+  return in;
+}
+
+std::string ListText(const std::vector<int>& nodes, const std::vector<std::string>& names) {
+  std::string out;
+  for (size_t i = 0; i < nodes.size(); ++i) out += (i ? ";" : "") + names[nodes[i]];
+  return out;
+}
+
+// One row per test made, in the order made.
+std::string TestLogCsv(const LearnResult& r) {
+  const std::vector<std::string>& names = r.graph.names();
+  std::ostringstream out;
+  out << "target,sources,given,statistic,df,p_value,status,decision\n";
+  for (const learners::TestRecord& t : r.log) {
+    out << names[t.target] << "," << ListText(t.sources, names) << "," << ListText(t.given, names)
+        << "," << base::FormatNumber(t.statistic) << "," << base::FormatNumber(t.df) << ","
+        << base::FormatNumber(t.p_value) << ","
+        << (t.status == learners::TestStatus::kOk ? "ok" : "not estimable") << ","
+        << (t.dependent ? "dependent" : "independent") << "\n";
+  }
+  return out.str();
+}
+
+void WriteOutputs(const LearnResult& r, const std::string& dir) {
+  std::error_code ec;
+  std::filesystem::create_directories(dir, ec);
+  if (ec) throw std::runtime_error("cannot create " + dir + ": " + ec.message());
+  graph::DotOptions style;
+  style.dashed = learners::DashedEdges(r);
+  style.title = r.method + " (" + r.test_kind + ")";
+  const std::string dot = graph::ToDot(r.graph, style);
+  Result<std::string> svg = RenderSvg(dot);
+  if (!svg.ok()) throw std::runtime_error(svg.status().message());
+  const std::pair<std::string, std::string> files[] = {
+      {"graph.json", GraphJson(r.graph, style.dashed) + "\n"},
+      {"graph.dot", dot},
+      {"graph.svg", *svg},
+      {"tests.csv", TestLogCsv(r)}};
+  for (const auto& [name, content] : files) {
+    Status written = WriteFileAtomically(dir + "/" + name, content);
+    if (!written.ok()) throw std::runtime_error(written.message());
+  }
+}
+
+void PrintResult(const LearnResult& r, bool json, std::ostream& out) {
+  const std::vector<graph::Edge> dashed = learners::DashedEdges(r);
+  if (json) {
+    out << GraphJson(r.graph, dashed) << "\n";
+    return;
+  }
+  out << FormatGraph(graph::TruthGraph{r.graph, {}});
+  if (r.has_marks) {
+    out << "dashed: [";
+    for (size_t i = 0; i < dashed.size(); ++i) {
+      out << (i ? ", " : "") << graph::EdgeText(r.graph, dashed[i]);
+    }
+    out << "]\n";
+  }
+  out << "# method " << r.method << ", test " << r.test_kind << ", tests " << r.tests
+      << ", not estimable " << r.not_estimable << ", largest conditioning set "
+      << r.largest_given << "\n";
+  if (!r.note.empty()) out << "# " << r.note << "\n";
+}
+
+int ListMethods(std::ostream& out) {
+  for (const learners::MethodEntry& m : learners::LearningMethods()) {
+    out << m.name << "\t" << m.description << "\n";
+  }
+  return kExitOk;
+}
+
+int Learn(const std::vector<std::string>& args, std::ostream& out) {
+  const LearnOptions o = ParseOptions(args);
+  if (o.list) return ListMethods(out);
+  const learners::MethodEntry* entry = learners::FindMethod(o.method);
+  if (entry == nullptr) throw UsageError{"unknown method '" + o.method + "' (see --methods)"};
+  Inputs in = LoadInputs(o);
+  learners::MethodSettings settings;
+  settings.screening_size = o.screening_size;
+  settings.penalty = o.penalty;
+  std::unique_ptr<learners::Learner> method = entry->make(settings);
+  Result<LearnResult> result =
+      method->Learn(learners::LearnInput{in.test.get(), o.level, in.events.get(), in.paths.get()});
+  if (!result.ok()) throw UsageError{result.status().message()};
+  if (!o.out.empty()) WriteOutputs(*result, o.out);
+  PrintResult(*result, o.json, out);
+  return kExitOk;
+}
+
+const char kLearnHelp[] =
+    "usage: locind learn --methods\n"
+    "       locind learn DATA.csv --method NAME [--test NAME] [--level 0.05] [--out DIR] [--json]\n"
+    "       locind learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]\n"
+    "  --methods        list the methods (name, tab, description)\n"
+    "  --method NAME    the learning method\n"
+    "  --test NAME      events: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed;\n"
+    "                   paths: drift-f (default), drift-robust-wald\n"
+    "  --level L        reject independence when p <= L (default 0.05)\n"
+    "  --size K         screen: at most K processes in C besides the target (default 1)\n"
+    "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"
+    "  --oracle FILE    answer tests from the graph file (hidden nodes hidden)\n"
+    "  --out DIR        write graph.json, graph.dot, graph.svg and tests.csv into DIR\n"
+    "  --json           print the graph as JSON (the shape of graph class --json)\n";
+
+}  // namespace
+
+int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << kLearnHelp;
+    return kExitOk;
+  }
+  return GuardCommand("learn", err, [&] {
+    return Learn(args, out);
+  });
+}
+
+}  // namespace locind::app

@@ -1,0 +1,216 @@
+#include "app/io/event_csv.h"
+#include "base/number_format.h"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <fstream>
+#include <map>
+#include <optional>
+#include <sstream>
+
+#include "app/io/graph_file.h"
+
+namespace locind::app {
+namespace csv {
+
+std::vector<Field> Split(std::string_view line) {
+  std::vector<Field> out;
+  size_t start = 0;
+  while (true) {
+    const size_t comma = line.find(',', start);
+    const size_t end = comma == std::string_view::npos ? line.size() : comma;
+    out.push_back(Field{line.substr(start, end - start), static_cast<int>(start) + 1});
+    if (comma == std::string_view::npos) return out;
+    start = comma + 1;
+  }
+}
+
+bool ParseNumber(std::string_view text, double& out) {
+  if (text.empty()) return false;
+  const char* end = text.data() + text.size();
+  const auto [ptr, ec] = std::from_chars(text.data(), end, out);
+  return ec == std::errc() && ptr == end && std::isfinite(out);
+}
+
+}  // namespace csv
+
+namespace {
+
+constexpr char kHeader[] = "time,process";
+constexpr char kProcessesKey[] = "# processes:";
+constexpr char kWindowKey[] = "# window:";
+
+struct Reader {
+  const std::string& file;
+  int line = 0;
+  InputError Error(int column, const std::string& field, const std::string& message) const {
+    return InputError{file, line, column, field, message};
+  }
+};
+
+bool StartsWith(std::string_view s, std::string_view prefix) {
+  return s.substr(0, prefix.size()) == prefix;
+}
+
+std::string_view TrimLeft(std::string_view s, int& column) {
+  while (!s.empty() && s.front() == ' ') {
+    s.remove_prefix(1);
+    ++column;
+  }
+  return s;
+}
+
+struct Parsed {
+  sim::EventData data;
+  std::map<std::string, int, std::less<>> index;
+  bool declared = false;  // processes line seen
+  bool window = false;    // window line seen
+};
+
+std::optional<InputError> ReadProcesses(const Reader& r, std::string_view rest, int column,
+                                        Parsed& p) {
+  for (const csv::Field& f : csv::Split(rest)) {
+    int col = column + f.column - 1;
+    const std::string name(TrimLeft(f.text, col));
+    if (!IsValidNodeName(name)) return r.Error(col, "processes", "expected a process name");
+    if (!p.index.emplace(name, p.data.processes()).second) {
+      return r.Error(col, "processes", "duplicate process '" + name + "'");
+    }
+    p.data.names.push_back(name);
+  }
+  p.data.times.resize(p.data.names.size());
+  p.declared = true;
+  return std::nullopt;
+}
+
+std::optional<InputError> ReadWindow(const Reader& r, std::string_view rest, int column, Parsed& p) {
+  const std::vector<csv::Field> f = csv::Split(rest);
+  if (f.size() != 2) return r.Error(column, "window", "expected 'start,end'");
+  double v[2];
+  for (int i = 0; i < 2; ++i) {
+    int col = column + f[i].column - 1;
+    if (!csv::ParseNumber(TrimLeft(f[i].text, col), v[i])) {
+      return r.Error(col, "window", "expected a finite number");
+    }
+  }
+  if (!(v[0] < v[1])) return r.Error(column, "window", "start must be before end");
+  p.data.start = v[0];
+  p.data.end = v[1];
+  p.window = true;
+  return std::nullopt;
+}
+
+std::optional<InputError> ReadEvent(const Reader& r, std::string_view text, double& last, Parsed& p) {
+  const std::vector<csv::Field> f = csv::Split(text);
+  if (f.size() != 2) {
+    return r.Error(f.size() > 2 ? f[2].column : static_cast<int>(text.size()) + 1, "row",
+                   "expected 2 fields 'time,process', found " + std::to_string(f.size()));
+  }
+  double t = 0;
+  if (!csv::ParseNumber(f[0].text, t)) return r.Error(1, "time", "expected a finite number");
+  if (t < last) {
+    return r.Error(1, "time", "events must be sorted by time (" + std::string(f[0].text) +
+                                  " comes after " + base::FormatNumber(last) + ")");
+  }
+  if (p.window && (t < p.data.start || t > p.data.end)) {
+    return r.Error(1, "time", "outside the window");
+  }
+  last = t;
+  const std::string name(f[1].text);
+  auto it = p.index.find(name);
+  if (it == p.index.end()) {
+    if (p.declared) return r.Error(f[1].column, "process", "unknown process '" + name + "'");
+    if (!IsValidNodeName(name)) return r.Error(f[1].column, "process", "expected a process name");
+    it = p.index.emplace(name, p.data.processes()).first;
+    p.data.names.push_back(name);
+    p.data.times.emplace_back();
+  }
+  p.data.times[it->second].push_back(t);
+  return std::nullopt;
+}
+
+}  // namespace
+
+void WriteEventCsv(const sim::EventData& data, std::ostream& out) {
+  out << kProcessesKey << ' ';
+  for (int i = 0; i < data.processes(); ++i) out << (i ? "," : "") << data.names[i];
+  out << '\n' << kWindowKey << ' ' << base::FormatNumber(data.start) << ','
+      << base::FormatNumber(data.end) << '\n' << kHeader << '\n';
+  std::vector<std::pair<double, int>> events;
+  events.reserve(data.total_events());
+  for (int i = 0; i < data.processes(); ++i) {
+    for (double t : data.times[i]) events.emplace_back(t, i);
+  }
+  std::sort(events.begin(), events.end());
+  for (const auto& [t, i] : events) out << base::FormatNumber(t) << ',' << data.names[i] << '\n';
+}
+
+std::string FormatEventCsv(const sim::EventData& data) {
+  std::ostringstream out;
+  WriteEventCsv(data, out);
+  return out.str();
+}
+
+EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
+  Reader r{file};
+  Parsed p;
+  bool header = false;
+  double last = -INFINITY;
+  InputErrors rows;  // problems in event lines: reading goes on after them
+  for (std::string text; std::getline(in, text);) {
+    ++r.line;
+    if (!text.empty() && text.back() == '\r') text.pop_back();
+    std::optional<InputError> error;
+    if (!header && StartsWith(text, kProcessesKey)) {
+      if (p.declared) return InputErrors{r.Error(1, "processes", "given twice")};
+      error = ReadProcesses(r, std::string_view(text).substr(sizeof kProcessesKey - 1),
+                            sizeof kProcessesKey, p);
+    } else if (!header && StartsWith(text, kWindowKey)) {
+      if (p.window) return InputErrors{r.Error(1, "window", "given twice")};
+      error = ReadWindow(r, std::string_view(text).substr(sizeof kWindowKey - 1), sizeof kWindowKey, p);
+    } else if (!header && StartsWith(text, "#")) {
+      continue;  // a comment before the header
+    } else if (!header) {
+      if (text != kHeader) return InputErrors{r.Error(1, "header", "expected 'time,process'")};
+      header = true;
+    } else if (std::optional<InputError> bad = ReadEvent(r, text, last, p)) {
+      if (AddInputError(rows, *bad)) return rows;
+    }
+    if (error) return InputErrors{*error};
+  }
+  if (!header) {
+    return InputErrors{InputError{file, r.line + 1, 1, "header",
+                                  r.line ? "missing 'time,process'" : "empty file"}};
+  }
+  if (!rows.empty()) return rows;
+  if (p.data.names.empty()) {
+    return InputErrors{
+        InputError{file, 0, 0, "processes", "no process: no events and no '# processes:' line"}};
+  }
+  if (!p.window) {
+    p.data.start = 0;
+    p.data.end = std::isfinite(last) ? std::max(last, 0.0) : 0.0;
+    const bool negative =
+        std::any_of(p.data.times.begin(), p.data.times.end(),
+                    [](const std::vector<double>& t) { return !t.empty() && t.front() < 0; });
+    if (negative) {
+      return InputErrors{
+          InputError{file, 0, 0, "window", "negative times need a '# window:' line"}};
+    }
+    if (!(p.data.end > p.data.start)) {
+      return InputErrors{
+          InputError{file, 0, 0, "window",
+                     "the window [0, last event time] is empty; give a '# window:' line"}};
+    }
+  }
+  return std::move(p.data);
+}
+
+EventsOrError ReadEventCsvFile(const std::string& path) {
+  std::ifstream in(path);
+  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
+  return ReadEventCsv(in, path);
+}
+
+}  // namespace locind::app

@@ -1,0 +1,117 @@
+#include "app/io/path_csv.h"
+#include "base/number_format.h"
+
+#include <cmath>
+#include <fstream>
+#include <optional>
+#include <set>
+#include <sstream>
+
+#include "app/io/event_csv.h"
+#include "app/io/graph_file.h"
+
+namespace locind::app {
+namespace {
+
+InputError At(const std::string& file, int line, int column, const std::string& field,
+              const std::string& message) {
+  return InputError{file, line, column, field, message};
+}
+
+std::variant<std::vector<std::string>, InputError> ReadHeader(const std::string& text,
+                                                              const std::string& file) {
+  const std::vector<csv::Field> f = csv::Split(text);
+  if (f[0].text != "time") return At(file, 1, 1, "header", "expected 'time' as the first column");
+  if (f.size() < 2) return At(file, 1, 1, "header", "expected at least one process column");
+  std::vector<std::string> names;
+  std::set<std::string> seen;
+  for (size_t i = 1; i < f.size(); ++i) {
+    const std::string name(f[i].text);
+    if (!IsValidNodeName(name)) return At(file, 1, f[i].column, "header", "expected a process name");
+    if (!seen.insert(name).second) {
+      return At(file, 1, f[i].column, "header", "duplicate process '" + name + "'");
+    }
+    names.push_back(name);
+  }
+  return names;
+}
+
+// The problem of one data row, if any; a good row is appended to `data`
+// (its time) and `values`.
+std::optional<InputError> ReadRow(const std::string& text, int line, const std::string& file,
+                                  sim::PathData& data, std::vector<double>& values) {
+  const size_t width = data.names.size() + 1;
+  const std::vector<csv::Field> f = csv::Split(text);
+  if (f.size() != width) {
+    return At(file, line, f.size() > width ? f[width].column : static_cast<int>(text.size()) + 1,
+              "row",
+              "expected " + std::to_string(width) + " fields, found " + std::to_string(f.size()));
+  }
+  std::vector<double> row(width);
+  for (size_t i = 0; i < width; ++i) {
+    if (!csv::ParseNumber(f[i].text, row[i])) {
+      return At(file, line, f[i].column, i == 0 ? "time" : data.names[i - 1],
+                "expected a finite number");
+    }
+  }
+  if (!data.time.empty() && !(row[0] > data.time.back())) {
+    return At(file, line, 1, "time", "times must increase strictly");
+  }
+  data.time.push_back(row[0]);
+  values.insert(values.end(), row.begin() + 1, row.end());
+  return std::nullopt;
+}
+
+}  // namespace
+
+void WritePathCsv(const sim::PathData& data, std::ostream& out) {
+  out << "time";
+  for (const std::string& name : data.names) out << ',' << name;
+  out << '\n';
+  for (int k = 0; k < data.samples(); ++k) {
+    out << base::FormatNumber(data.time[k]);
+    for (int j = 0; j < data.processes(); ++j) out << ',' << base::FormatNumber(data.values(k, j));
+    out << '\n';
+  }
+}
+
+std::string FormatPathCsv(const sim::PathData& data) {
+  std::ostringstream out;
+  WritePathCsv(data, out);
+  return out.str();
+}
+
+PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {
+  std::string text;
+  if (!std::getline(in, text)) return InputErrors{At(file, 1, 1, "header", "empty file")};
+  if (!text.empty() && text.back() == '\r') text.pop_back();
+  auto header = ReadHeader(text, file);
+  if (auto* e = std::get_if<InputError>(&header)) return InputErrors{*e};
+  sim::PathData data;
+  data.names = std::get<std::vector<std::string>>(std::move(header));
+  std::vector<double> values;
+  InputErrors errors;  // problems in data rows: reading goes on after them
+  int line = 1;
+  while (std::getline(in, text)) {
+    ++line;
+    if (!text.empty() && text.back() == '\r') text.pop_back();
+    if (std::optional<InputError> bad = ReadRow(text, line, file, data, values)) {
+      if (AddInputError(errors, *bad)) return errors;
+    }
+  }
+  if (!errors.empty()) return errors;
+  if (data.time.empty())
+    return InputErrors{At(file, line + 1, 1, "", "no samples after the header")};
+  const Eigen::Index n = static_cast<Eigen::Index>(data.names.size());
+  data.values = Eigen::Map<Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
+      values.data(), data.samples(), n);
+  return data;
+}
+
+PathsOrError ReadPathCsvFile(const std::string& path) {
+  std::ifstream in(path);
+  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
+  return ReadPathCsv(in, path);
+}
+
+}  // namespace locind::app

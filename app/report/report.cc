@@ -1,0 +1,385 @@
+#include "app/report/report.h"
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <map>
+#include <set>
+#include <sstream>
+#include <tuple>
+
+#include "app/io/atomic_file.h"
+#include "app/report/report_drawings.h"
+#include "app/report/report_figures.h"
+#include "app/results/results_rows.h"
+#include "app/io/svg_render.h"
+
+namespace locind::app {
+namespace {
+
+constexpr size_t kTruthsDrawn = 3;
+constexpr int kReplicatesDrawn = 2;
+constexpr double kCalibrationLevel = 0.05;
+
+std::string RangeText(const ValueRange& r) {
+  return r.IsFixed() ? Num(r.low) : "uniform on [" + Num(r.low) + ", " + Num(r.high) + "] per truth";
+}
+
+std::string JoinNumbers(const std::vector<double>& values) {
+  std::string out;
+  for (double v : values) out += (out.empty() ? "" : ", ") + Num(v);
+  return out;
+}
+
+std::string TruthText(const StudySpec& study) {
+  const TruthSpec& t = study.truth;
+  if (!t.random) {
+    const graph::TruthGraph& g = t.explicit_graph;
+    std::string hidden;
+    for (int v : g.hidden) hidden += (hidden.empty() ? "" : ", ") + g.graph.name(v);
+    return "one explicit graph: " + std::to_string(g.graph.size()) + " processes" +
+           (hidden.empty() ? ", none hidden" : ", hidden: " + hidden) + "; " + std::to_string(t.truths) +
+           " parameter draw(s)";
+  }
+  const graph::RandomGraphOptions& r = t.random_graph;
+  std::string text = std::to_string(t.truths) + " random graph(s) on " + std::to_string(r.nodes) + " processes, ";
+  text += r.expected_in_degree >= 0 ? "expected in-degree " + Num(r.expected_in_degree)
+                                    : "edge probability " + Num(r.edge_probability);
+  text += r.loops == graph::LoopPolicy::kAll ? ", every loop" : r.loops == graph::LoopPolicy::kNone ? ", no loops"
+                                                                : ", loops with probability " + Num(r.loop_probability);
+  return text + ", " + std::to_string(r.hidden_count) + " hidden";
+}
+
+std::string ProcessText(const StudySpec& study) {
+  if (study.events) {
+    const EventProcessSpec& e = study.event_process;
+    return "Hawkes event streams, exponential kernels; baseline " + RangeText(e.baseline) + ", weight " +
+           RangeText(e.weight) + ", loop weight " + RangeText(e.loop_weight) + ", decay " + RangeText(e.decay) +
+           (e.spectral_radius ? ", rescaled to spectral radius " + Num(*e.spectral_radius) : "") +
+           ", burn-in " + Num(e.burn_in);
+  }
+  const PathProcessSpec& p = study.path_process;
+  return std::string(p.tanh ? "tanh" : "linear") + " diffusion paths; self rate " + RangeText(p.self_rate) +
+         ", coupling " + RangeText(p.coupling) + ", noise " + Num(p.noise) + ", step " + Num(p.step) +
+         ", observed every " + Num(p.interval) + (p.exact ? ", exact transitions" : ", Euler-Maruyama") +
+         (p.drift_bound ? ", rescaled to drift bound " + Num(*p.drift_bound) : "");
+}
+
+std::vector<std::pair<std::string, std::string>> StudyRows(const StudySpec& study) {
+  std::vector<std::pair<std::string, std::string>> rows = {
+      {"study", study.name},
+      {"file", std::filesystem::path(study.file).filename().string()},
+      {"seed", std::to_string(study.seed)},
+      {"truths", TruthText(study)},
+      {"process", ProcessText(study)},
+      {"observation lengths", JoinNumbers(study.grid.lengths)},
+      {"levels", JoinNumbers(study.grid.levels)},
+      {"replicates per cell", std::to_string(study.grid.replicates)}};
+  if (!study.grid.hidden_counts.empty()) {
+    std::vector<double> h(study.grid.hidden_counts.begin(), study.grid.hidden_counts.end());
+    rows.push_back({"hidden counts", JoinNumbers(h)});
+  }
+  if (!study.grid.stationarity.empty()) rows.push_back({"stationarity targets", JoinNumbers(study.grid.stationarity)});
+  std::string learners;
+  for (const LearnerSpec& l : study.learners) learners += (learners.empty() ? "" : "; ") + l.label;
+  rows.push_back({"learners", learners});
+  return rows;
+}
+
+// The other grid factors of a summary line: one set of curves per value.
+using GroupKey = std::tuple<double, int, double>;  // level, hidden count, target (NaN: none)
+
+GroupKey GroupOf(const SummaryLine& s) {
+  return {s.level, s.hidden_count, s.stationarity_target.value_or(NAN)};
+}
+
+std::string GroupText(const GroupKey& g) {
+  std::string text = "level " + Num(std::get<0>(g)) + ", " + std::to_string(std::get<1>(g)) + " hidden";
+  if (!std::isnan(std::get<2>(g))) text += ", stationarity target " + Num(std::get<2>(g));
+  return text;
+}
+
+int StyleOf(const StudySpec& study, const std::string& learner) {
+  for (size_t i = 0; i < study.learners.size(); ++i) {
+    if (study.learners[i].label == learner) return static_cast<int>(i);
+  }
+  return static_cast<int>(study.learners.size());
+}
+
+// Summary lines grouped by the other factors, in order of first appearance.
+std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const ReportData& data) {
+  std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> groups;
+  for (const SummaryLine& s : data.summary) {
+    const GroupKey key = GroupOf(s);
+    auto it = std::find_if(groups.begin(), groups.end(), [&key](const auto& g) {
+      return std::get<0>(g.first) == std::get<0>(key) && std::get<1>(g.first) == std::get<1>(key) &&
+             (std::get<2>(g.first) == std::get<2>(key) || (std::isnan(std::get<2>(g.first)) && std::isnan(std::get<2>(key))));
+    });
+    if (it == groups.end()) {
+      groups.push_back({key, {}});
+      it = groups.end() - 1;
+    }
+    it->second.push_back(&s);
+  }
+  return groups;
+}
+
+using Pick = metrics::Interval SummaryLine::*;
+
+std::vector<PlotSeries> SeriesOf(const StudySpec& study, const std::vector<const SummaryLine*>& lines, Pick pick) {
+  std::vector<PlotSeries> series;
+  for (const LearnerSpec& l : study.learners) {
+    PlotSeries s;
+    s.label = l.label;
+    s.style = StyleOf(study, l.label);
+    for (const SummaryLine* line : lines) {
+      const metrics::Interval& v = line->*pick;
+      if (line->learner != l.label || std::isnan(v.estimate)) continue;
+      s.points.push_back({line->length, v.estimate, v.low, v.high});
+    }
+    std::sort(s.points.begin(), s.points.end(), [](const PlotPoint& a, const PlotPoint& b) { return a.x < b.x; });
+    series.push_back(std::move(s));
+  }
+  return series;
+}
+
+ReportFigure PlotFigure(const std::string& id, const std::string& title, const std::string& caption,
+                        const LinePlot& plot) {
+  return {id, title, caption, Renderer::kGnuplot, LinePlotScript(plot), ""};
+}
+
+void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupKey& group,
+                    const std::vector<const SummaryLine*>& lines, const std::string& suffix,
+                    ReportSection& section) {
+  LinePlot power;
+  power.title = "Power, " + GroupText(group);
+  power.y_label = "power (solid edges of N found)";
+  power.unit_range = true;
+  power.series = SeriesOf(study, lines, &SummaryLine::power);
+  LinePlot false_edges = power;
+  false_edges.title = "False-edge rate, " + GroupText(group);
+  false_edges.y_label = "false-edge rate (reported edges not in N)";
+  false_edges.series = SeriesOf(study, lines, &SummaryLine::false_edge_rate);
+  if (!data.plan.empty()) {
+    power.target = data.plan.front().target_power;
+    power.target_label = "target " + Num(*power.target);
+    false_edges.target = data.plan.front().target_false_edge_rate;
+    false_edges.target_label = "limit " + Num(*false_edges.target);
+    for (const PlanLine& p : data.plan) {
+      if (p.reached) power.marks.push_back({StyleOf(study, p.learner), p.length});
+    }
+    false_edges.marks = power.marks;
+  }
+  const std::string plan_note = data.plan.empty() ? "" : " Grey dashed: the target of locind plan; dotted "
+                                                         "verticals: each learner's planned length.";
+  section.figures.push_back(PlotFigure(
+      "power" + suffix, "Power against observation length (" + GroupText(group) + ")",
+      "Share of the solid edges of the maximal graph N that were reported, pooled over replicates; bands "
+      "are Wilson 95% intervals." + plan_note, power));
+  section.figures.push_back(PlotFigure(
+      "false-edges" + suffix, "False-edge rate against observation length (" + GroupText(group) + ")",
+      "Share of reported edges that are not in N (no graph equivalent to the truth has them); bands are "
+      "Wilson 95% intervals. Undefined where nothing was reported." + plan_note, false_edges));
+}
+
+void AddCostFigures(const StudySpec& study, const GroupKey& group, const std::vector<const SummaryLine*>& lines,
+                    const std::string& suffix, ReportSection& section) {
+  LinePlot tests;
+  tests.title = "Tests made, " + GroupText(group);
+  tests.y_label = "independence tests per replicate";
+  tests.log_y = true;
+  tests.series = SeriesOf(study, lines, &SummaryLine::tests);
+  LinePlot seconds = tests;
+  seconds.title = "Learner time, " + GroupText(group);
+  seconds.y_label = "seconds per replicate (tests included)";
+  seconds.series = SeriesOf(study, lines, &SummaryLine::seconds);
+  section.figures.push_back(PlotFigure(
+      "tests" + suffix, "Tests made (" + GroupText(group) + ")",
+      "Mean number of independence tests per replicate, log scale, with percentile-bootstrap 95% "
+      "intervals; methods that make no tests are left out.", tests));
+  section.figures.push_back(PlotFigure(
+      "seconds" + suffix, "Learner time (" + GroupText(group) + ")",
+      "Mean wall-clock seconds of each learner per replicate, log scale, with percentile-bootstrap 95% "
+      "intervals. Times depend on the machine and its load; compare learners within one run.", seconds));
+}
+
+// File-name-safe form of a label.
+std::string Slug(const std::string& text) {
+  std::string out;
+  for (char c : text) out += std::isalnum(static_cast<unsigned char>(c)) || c == '.' ? c : '-';
+  return out;
+}
+
+ReportSection CalibrationSection(const ReportData& data) {
+  ReportSection section{"calibration", "Calibration of the tests",
+                        "Each plot pools the p-values of the tests whose null hypothesis holds in the truth "
+                        "(b mu-separated from A given C in the latent projection), one per distinct query and "
+                        "replicate, over all learners using that test at that length. A calibrated test keeps "
+                        "its points inside the grey band around the diagonal; points below it mean too many "
+                        "rejections (false edges), points above it a conservative test (lost power).",
+                        {}};
+  // (test, length) -> p-values, each distinct (cell, replicate, query) once.
+  std::map<std::pair<std::string, double>, std::vector<double>> pooled;
+  std::set<std::tuple<std::string, int, int, std::string, std::string, std::string>> seen;
+  for (const NullTestLine& n : data.null_tests) {
+    if (!seen.insert({n.test, n.cell, n.replicate, n.target, n.sources, n.given}).second) continue;
+    pooled[{n.test, n.length}].push_back(n.p_value);
+  }
+  if (pooled.empty()) {
+    section.intro = "No learner of this study made a statistical test whose null holds in the truth (the "
+                    "oracle and penalized-fit make none), so there is nothing to calibrate.";
+  }
+  for (const auto& [key, p_values] : pooled) {
+    QqPlot plot;
+    plot.title = key.first + ", length " + Num(key.second);
+    plot.points = metrics::UniformQq(p_values);
+    plot.level = kCalibrationLevel;
+    plot.share_at_level = metrics::ShareAtOrBelow(p_values, kCalibrationLevel);
+    section.figures.push_back({"qq-" + Slug(key.first) + "-" + Slug(Num(key.second)),
+                               "P-values under true nulls: " + key.first + " at length " + Num(key.second),
+                               std::to_string(p_values.size()) + " tests; " +
+                                   Num(std::round(plot.share_at_level * 1000) / 10) + "% had p <= " +
+                                   Num(kCalibrationLevel) + " (a calibrated test: about " +
+                                   Num(kCalibrationLevel * 100) + "%).",
+                               Renderer::kGnuplot, QqPlotScript(plot), ""});
+  }
+  return section;
+}
+
+ReportFigure GraphFigure(const std::string& id, const std::string& title, const std::string& caption,
+                         const std::string& dot) {
+  return {id, title, caption, Renderer::kGraphviz, dot, ""};
+}
+
+void AddTruthDrawings(const StudyTruths& truths, ReportSection& section) {
+  size_t drawn = 0;
+  for (const auto& [id, t] : truths.all()) {
+    if (drawn++ == kTruthsDrawn) break;
+    section.figures.push_back(GraphFigure("truth-" + Slug(t.label), "Truth " + t.label,
+                                          "The simulated graph; hidden processes are grey dashed boxes.",
+                                          TruthDot(t)));
+    if (!t.truth_class.ok()) continue;
+    section.figures.push_back(GraphFigure(
+        "projection-" + Slug(t.label), "Latent projection of " + t.label,
+        "What the observed processes can show of the truth: the hidden processes projected out "
+        "(blue two-headed edges: a hidden common driver).", ProjectionDot(t)));
+    section.figures.push_back(GraphFigure(
+        "class-" + Slug(t.label), "Equivalence graph of " + t.label,
+        "The maximal graph N of the class: solid edges are in every graph with the same separations "
+        "(a learner should find them), dashed edges in some only (undetermined; never scored).", ClassDot(t)));
+  }
+}
+
+// The longest length of the first group, and the cell there.
+const Cell* DrawnCell(const std::vector<Cell>& cells, const ReportData& data) {
+  if (data.summary.empty()) return nullptr;
+  const GroupKey first = GroupOf(data.summary.front());
+  const Cell* best = nullptr;
+  for (const SummaryLine& s : data.summary) {
+    const GroupKey g = GroupOf(s);
+    if (std::get<0>(g) != std::get<0>(first) || std::get<1>(g) != std::get<1>(first)) continue;
+    if (s.cell < 0 || s.cell >= static_cast<int>(cells.size())) continue;
+    if (best == nullptr || cells[s.cell].length > best->length) best = &cells[s.cell];
+  }
+  return best;
+}
+
+void AddLearnedDrawings(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths,
+                        const ReportData& data, ReportSection& section) {
+  const Cell* cell = DrawnCell(cells, data);
+  if (cell == nullptr) return;
+  for (int r = 0; r < std::min(kReplicatesDrawn, study.grid.replicates); ++r) {
+    const PreparedTruth& truth = truths.Get(cell->hidden_factor, TruthIndexOf(study, r));
+    if (!truth.truth_class.ok()) continue;
+    for (const LearnerSpec& l : study.learners) {
+      std::vector<EdgeLine> rows;
+      for (const EdgeLine& e : data.edges) {
+        if (e.cell == cell->index && e.replicate == r && e.learner == l.label) rows.push_back(e);
+      }
+      if (rows.empty()) continue;  // the replicate failed, or has no share in this folder
+      const std::string title = l.label + ", replicate " + std::to_string(r) + " (" + truth.label +
+                                ", length " + Num(cell->length) + ")";
+      section.figures.push_back(GraphFigure(
+          "learned-" + std::to_string(cell->index) + "-" + std::to_string(r) + "-" + Slug(l.label), title,
+          "Reported edges as the method drew them; vermillion thick: false edges (not in N); orange "
+          "dotted thick: solid edges of N the learner missed.",
+          LearnedDot(*truth.truth_class, rows, title)));
+    }
+  }
+}
+
+Status RenderFigure(ReportFigure& f) {
+  Result<std::string> svg =
+      f.renderer == Renderer::kGnuplot ? RenderGnuplot(f.source) : RenderSvg(f.source);
+  if (!svg.ok()) return Status::Error("figure " + f.id + ": " + svg.status().message());
+  f.svg = std::move(svg.value());
+  return Status::Ok();
+}
+
+}  // namespace
+
+const std::string& ReportCaution() {
+  static const std::string text =
+      "Read the learned graphs as statistical hypotheses, not as proven mechanisms. Each rests on "
+      "assumptions: the model class of the test (for example a linear Hawkes intensity with exponential "
+      "kernels, or a linear drift), faithfulness (every separation in the data comes from the graph), "
+      "stationarity over the observation window, and the chosen level. The rates in this report describe "
+      "the simulated truths and processes of this study only. Do not use a learned graph as evidence for "
+      "decisions about people, patients or safety-critical systems.";
+  return text;
+}
+
+ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cells,
+                           const StudyTruths& truths, const ReportData& data) {
+  ReportPage page;
+  page.title = "Study report: " + study.name;
+  page.study = StudyRows(study);
+  page.caution = ReportCaution();
+  page.summary = data.summary;
+  ReportSection rates{"rates", "Power and false edges", "Scored against the maximal graph N of each truth's "
+                      "class: a learner can at best report N.", {}};
+  ReportSection cost{"cost", "Tests made and time", "", {}};
+  const auto groups = Groups(data);
+  for (size_t g = 0; g < groups.size(); ++g) {
+    const std::string suffix = groups.size() > 1 ? "-g" + std::to_string(g + 1) : "";
+    AddRateFigures(study, data, groups[g].first, groups[g].second, suffix, rates);
+    AddCostFigures(study, groups[g].first, groups[g].second, suffix, cost);
+  }
+  ReportSection drawings{"graphs", "Graphs", "", {}};
+  AddTruthDrawings(truths, drawings);
+  ReportSection learned{"learned", "Learned graphs", "", {}};
+  AddLearnedDrawings(study, cells, truths, data, learned);
+  page.sections = {rates, cost, CalibrationSection(data), drawings, learned};
+  return page;
+}
+
+Result<int> WriteReport(const std::string& dir, const StudySpec& study, const std::vector<Cell>& cells,
+                        const StudyTruths& truths, const ReportData& data) {
+  ReportPage page = BuildReportPage(study, cells, truths, data);
+  std::error_code ec;
+  std::filesystem::create_directories(dir + "/figures", ec);
+  if (ec) return Status::Error("cannot create " + dir + "/figures: " + ec.message());
+  int figures = 0;
+  for (ReportSection& section : page.sections) {
+    for (ReportFigure& f : section.figures) {
+      Status s = RenderFigure(f);
+      if (s.ok()) s = WriteFileAtomically(dir + "/figures/" + f.id + ".svg", f.svg);
+      if (!s.ok()) return s;
+      ++figures;
+    }
+  }
+  std::ostringstream html;
+  WriteReportHtml(page, html);
+  Status s = WriteFileAtomically(dir + "/report.html", html.str());
+  if (!s.ok()) return s;
+  return figures;
+}
+
+Result<int> WriteReportOfResults(const std::string& dir, const StudySpec& study,
+                                 const std::vector<Cell>& cells, const StudyTruths& truths) {
+  Result<ReportData> data = ReadReportData(dir);
+  if (!data.ok()) return data.status();
+  return WriteReport(dir, study, cells, truths, *data);
+}
+
+}  // namespace locind::app

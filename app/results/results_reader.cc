@@ -1,0 +1,189 @@
+#include "app/results/results_reader.h"
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <functional>
+#include <map>
+#include <sstream>
+
+namespace locind::app {
+namespace {
+
+// One CSV file of ours (no quoted fields), with columns looked up by name.
+// Every accessor throws Bad with the location of the offending field.
+struct Bad {
+  std::string message;
+};
+
+class Table {
+ public:
+  Table(std::string path, const std::string& text) : path_(std::move(path)) {
+    std::istringstream in(text);
+    std::string line;
+    if (!std::getline(in, line)) throw Bad{path_ + ":1:1: header: the file is empty"};
+    header_ = Split(line);
+    for (size_t i = 0; i < header_.size(); ++i) column_[header_[i]] = i;
+    for (int number = 2; std::getline(in, line); ++number) {
+      if (line.empty()) continue;
+      rows_.push_back({number, Split(line)});
+      if (rows_.back().fields.size() != header_.size()) {
+        throw Bad{Where(number, 1, "row") + std::to_string(rows_.back().fields.size()) +
+                  " fields, the header has " + std::to_string(header_.size())};
+      }
+    }
+  }
+
+  size_t size() const { return rows_.size(); }
+  const std::string& Text(size_t row, const std::string& name) const {
+    return rows_[row].fields[Column(name)];
+  }
+  double Number(size_t row, const std::string& name) const {
+    const std::string& f = Text(row, name);
+    if (f.empty()) return NAN;
+    size_t used = 0;
+    double v = NAN;
+    try {
+      v = std::stod(f, &used);
+    } catch (const std::exception&) {
+      used = 0;
+    }
+    if (used != f.size()) throw Bad{Where(rows_[row].number, ColumnNumber(name), name) + "expected a number, got '" + f + "'"};
+    return v;
+  }
+  int Whole(size_t row, const std::string& name) const {
+    const double v = Number(row, name);
+    if (!(std::abs(v) < 1e9) || v != std::floor(v)) {
+      throw Bad{Where(rows_[row].number, ColumnNumber(name), name) + "expected a whole number"};
+    }
+    return static_cast<int>(v);
+  }
+  metrics::Interval Interval(size_t row, const std::string& name) const {
+    return {Number(row, name), Number(row, name + "_low"), Number(row, name + "_high")};
+  }
+
+ private:
+  struct Row {
+    int number;
+    std::vector<std::string> fields;
+  };
+  static std::vector<std::string> Split(const std::string& line) {
+    std::vector<std::string> out;
+    std::stringstream s(line);
+    for (std::string f; std::getline(s, f, ',');) out.push_back(f);
+    if (line.empty() || line.back() == ',') out.push_back("");
+    return out;
+  }
+  std::string Where(int line, size_t column, const std::string& field) const {
+    return path_ + ":" + std::to_string(line) + ":" + std::to_string(column) + ": " + field + ": ";
+  }
+  size_t Column(const std::string& name) const {
+    auto it = column_.find(name);
+    if (it == column_.end()) throw Bad{Where(1, 1, "header") + "no column '" + name + "'"};
+    return it->second;
+  }
+  // 1-based character column where the field starts, for messages.
+  size_t ColumnNumber(const std::string& name) const {
+    size_t at = 1;
+    for (size_t i = 0; i < Column(name); ++i) at += header_[i].size() + 1;
+    return at;
+  }
+
+  std::string path_;
+  std::vector<std::string> header_;
+  std::map<std::string, size_t> column_;
+  std::vector<Row> rows_;
+};
+
+std::optional<Table> Open(const std::string& dir, const std::string& file, bool required) {
+  const std::string path = (std::filesystem::path(dir) / file).string();
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    if (!required) return std::nullopt;
+    throw Bad{path + ": cannot open the file (is this the folder of a finished locind run?)"};
+  }
+  std::ostringstream text;
+  text << in.rdbuf();
+  return Table(path, text.str());
+}
+
+void ReadSummary(const Table& t, ReportData& d) {
+  for (size_t i = 0; i < t.size(); ++i) {
+    SummaryLine s;
+    s.cell = t.Whole(i, "cell");
+    s.length = t.Number(i, "length");
+    s.level = t.Number(i, "level");
+    s.hidden_count = t.Whole(i, "hidden_count");
+    if (!t.Text(i, "stationarity_target").empty()) s.stationarity_target = t.Number(i, "stationarity_target");
+    s.learner = t.Text(i, "learner");
+    s.replicates = t.Whole(i, "replicates");
+    s.failed = t.Whole(i, "failed");
+    s.power = t.Interval(i, "power");
+    s.false_edge_rate = t.Interval(i, "false_edge_rate");
+    s.class_recovery = t.Interval(i, "class_recovery");
+    s.hamming = t.Interval(i, "hamming");
+    s.tests = t.Interval(i, "tests");
+    s.seconds = t.Interval(i, "timing_learn_seconds");
+    d.summary.push_back(std::move(s));
+  }
+}
+
+void ReadEdges(const Table& t, ReportData& d) {
+  for (size_t i = 0; i < t.size(); ++i) {
+    EdgeLine e;
+    e.cell = t.Whole(i, "cell");
+    e.replicate = t.Whole(i, "replicate");
+    e.truth = t.Text(i, "truth");
+    e.learner = t.Text(i, "learner");
+    e.edge = t.Text(i, "edge");
+    e.truth_status = t.Text(i, "truth_status");
+    e.reported = t.Text(i, "learner_action") == "reported";
+    e.learner_mark = t.Text(i, "learner_mark");
+    d.edges.push_back(std::move(e));
+  }
+}
+
+void ReadNullTests(const Table& t, ReportData& d) {
+  for (size_t i = 0; i < t.size(); ++i) {
+    NullTestLine n;
+    n.cell = t.Whole(i, "cell");
+    n.replicate = t.Whole(i, "replicate");
+    n.learner = t.Text(i, "learner");
+    n.test = t.Text(i, "test");
+    n.length = t.Number(i, "length");
+    n.target = t.Text(i, "test_target");
+    n.sources = t.Text(i, "test_sources");
+    n.given = t.Text(i, "test_given");
+    n.p_value = t.Number(i, "test_p_value");
+    d.null_tests.push_back(std::move(n));
+  }
+}
+
+void ReadPlan(const Table& t, ReportData& d) {
+  for (size_t i = 0; i < t.size(); ++i) {
+    PlanLine p;
+    p.learner = t.Text(i, "learner");
+    p.target_power = t.Number(i, "target_power");
+    p.target_false_edge_rate = t.Number(i, "target_false_edge_rate");
+    p.reached = t.Text(i, "reached") == "yes";
+    p.length = t.Number(i, "length");
+    d.plan.push_back(std::move(p));
+  }
+}
+
+}  // namespace
+
+Result<ReportData> ReadReportData(const std::string& dir) {
+  ReportData d;
+  try {
+    ReadSummary(*Open(dir, "summary.csv", true), d);
+    ReadEdges(*Open(dir, "edges.csv", true), d);
+    ReadNullTests(*Open(dir, "null_tests.csv", true), d);
+    if (std::optional<Table> plan = Open(dir, "plan.csv", false)) ReadPlan(*plan, d);
+  } catch (const Bad& bad) {
+    return Status::Error(bad.message);
+  }
+  return d;
+}
+
+}  // namespace locind::app

@@ -1,0 +1,62 @@
+// The tables a study report is drawn from, read back from a result folder:
+// summary.csv, edges.csv, null_tests.csv and, when `locind plan --out` wrote
+// it, plan.csv (columns: results/README.md). Columns are found by name, so
+// the report reads exactly what the files say.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "base/status.h"
+#include "metrics/intervals.h"
+
+namespace locind::app {
+
+struct SummaryLine {
+  int cell = 0;
+  double length = 0;
+  double level = 0;
+  int hidden_count = 0;
+  std::optional<double> stationarity_target;
+  std::string learner;
+  int replicates = 0;
+  int failed = 0;
+  metrics::Interval power, false_edge_rate, class_recovery, hamming, tests, seconds;
+};
+
+struct EdgeLine {
+  int cell = 0;
+  int replicate = 0;
+  std::string truth, learner, edge, truth_status, learner_mark;
+  bool reported = false;
+};
+
+struct NullTestLine {
+  int cell = 0;
+  int replicate = 0;
+  std::string learner, test, target, sources, given;
+  double length = 0;
+  double p_value = 0;
+};
+
+struct PlanLine {
+  std::string learner;
+  double target_power = 0;
+  double target_false_edge_rate = 0;
+  bool reached = false;
+  double length = 0;  // NaN when not reached
+};
+
+struct ReportData {
+  std::vector<SummaryLine> summary;
+  std::vector<EdgeLine> edges;
+  std::vector<NullTestLine> null_tests;
+  std::vector<PlanLine> plan;  // empty without plan.csv
+};
+
+// Reads the files of `dir`. Fails naming FILE:LINE:COLUMN: FIELD when a file
+// is missing (plan.csv may be) or a value does not parse.
+Result<ReportData> ReadReportData(const std::string& dir);
+
+}  // namespace locind::app

@@ -1,0 +1,189 @@
+#include "app/results/results_rows.h"
+#include "base/number_format.h"
+
+#include <cmath>
+#include <sstream>
+
+#include "app/io/event_csv.h"
+
+namespace locind::app {
+namespace {
+
+constexpr const char* kCountNames[] = {"reported", "in_class", "false_edges", "solid",
+                                       "solid_found", "missed_solid", "dashed", "dashed_found"};
+
+std::vector<int*> CountFields(metrics::EdgeCounts& c) {
+  return {&c.reported, &c.in_class, &c.false_edges, &c.solid,
+          &c.solid_found, &c.missed_solid, &c.dashed, &c.dashed_found};
+}
+
+std::string BuildReplicateHeader() {
+  std::string h = "cell,replicate,truth,length,level,hidden_count,stationarity_target,"
+                  "stationarity_value,learner,method,test,status,message,observed_points";
+  for (const char* n : kCountNames) h += std::string(",") + n;
+  for (int g = 0; g < metrics::kEdgeGroups; ++g) {
+    for (const char* n : kCountNames) {
+      h += std::string(",") + metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g)) + "_" + n;
+    }
+  }
+  h += ",power,false_edge_rate,hamming,class_recovered,tests,not_estimable,largest_given,"
+       "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds";
+  return h;
+}
+
+std::vector<std::string> SplitCommas(const std::string& line) {
+  std::vector<std::string> out;
+  size_t start = 0;
+  while (true) {
+    const size_t comma = line.find(',', start);
+    out.push_back(line.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
+    if (comma == std::string::npos) return out;
+    start = comma + 1;
+  }
+}
+
+bool ReadNumber(const std::string& text, double& out) {
+  if (text.empty()) {
+    out = NAN;
+    return true;
+  }
+  return csv::ParseNumber(text, out);
+}
+
+bool ReadInt(const std::string& text, int& out) {
+  double v = 0;
+  if (!csv::ParseNumber(text, v) || v != std::floor(v)) return false;
+  out = static_cast<int>(v);
+  return true;
+}
+
+}  // namespace
+
+std::string Num(double value) { return std::isnan(value) ? "" : base::FormatNumber(value); }
+
+std::string CleanText(const std::string& text) {
+  std::string out = text;
+  for (char& ch : out) {
+    if (ch == ',') ch = ';';
+    if (ch == '"' || ch == '\t' || ch == '\n' || ch == '\r') ch = ' ';
+  }
+  return out;
+}
+
+const std::string& ReplicateHeader() {
+  static const std::string header = BuildReplicateHeader();
+  return header;
+}
+
+const std::string& EdgeHeader() {
+  static const std::string header =
+      "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark,"
+      "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision";
+  return header;
+}
+
+const std::string& NullTestHeader() {
+  static const std::string header =
+      "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
+      "test_statistic,test_df,test_p_value";
+  return header;
+}
+
+const std::string& SummaryHeader() {
+  static const std::string header =
+      "cell,length,level,hidden_count,stationarity_target,learner,replicates,failed,"
+      "power,power_low,power_high,false_edge_rate,false_edge_rate_low,false_edge_rate_high,"
+      "class_recovery,class_recovery_low,class_recovery_high,hamming,hamming_low,hamming_high,"
+      "tests,tests_low,tests_high,largest_given,largest_given_low,largest_given_high,"
+      "solid,solid_found,dashed,dashed_found,reported,false_edges,"
+      "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high";
+  return header;
+}
+
+std::string FormatReplicateRow(const ReplicateRow& r) {
+  std::ostringstream o;
+  o << r.cell << "," << r.replicate << "," << r.truth << "," << Num(r.length) << "," << Num(r.level)
+    << "," << r.hidden_count << "," << (r.stationarity_target ? Num(*r.stationarity_target) : "")
+    << "," << Num(r.stationarity_value) << "," << r.learner << "," << r.method << "," << r.test
+    << "," << (r.ok ? "ok" : "failed") << "," << CleanText(r.message) << ","
+    << Num(r.observed_points);
+  metrics::ReplicateScore s = r.score;
+  for (int* v : CountFields(s.total)) o << "," << *v;
+  for (auto& group : s.by_group) {
+    for (int* v : CountFields(group)) o << "," << *v;
+  }
+  o << "," << Num(s.power) << "," << Num(s.false_edge_rate) << "," << s.hamming << ","
+    << (s.class_recovered ? 1 : 0) << "," << r.tests << "," << r.not_estimable << ","
+    << r.largest_given << "," << Num(r.timing_simulate_seconds) << ","
+    << Num(r.timing_test_seconds) << "," << Num(r.timing_learn_seconds) << ","
+    << Num(r.timing_score_seconds);
+  return o.str();
+}
+
+std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
+  const std::vector<std::string> f = SplitCommas(line);
+  constexpr size_t kCounts = 8 * (1 + metrics::kEdgeGroups);
+  if (f.size() != 14 + kCounts + 11) return std::nullopt;
+  ReplicateRow r;
+  double target = 0;
+  bool ok = ReadInt(f[0], r.cell) && ReadInt(f[1], r.replicate) && ReadNumber(f[3], r.length) &&
+            ReadNumber(f[4], r.level) && ReadInt(f[5], r.hidden_count) &&
+            ReadNumber(f[6], target) && ReadNumber(f[7], r.stationarity_value) &&
+            ReadNumber(f[13], r.observed_points);
+  r.truth = f[2];
+  if (!std::isnan(target)) r.stationarity_target = target;
+  r.learner = f[8];
+  r.method = f[9];
+  r.test = f[10];
+  r.ok = f[11] == "ok";
+  ok = ok && (r.ok || f[11] == "failed");
+  r.message = f[12];
+  size_t i = 14;
+  for (int* v : CountFields(r.score.total)) ok = ok && ReadInt(f[i++], *v);
+  for (auto& group : r.score.by_group) {
+    for (int* v : CountFields(group)) ok = ok && ReadInt(f[i++], *v);
+  }
+  int recovered = 0;
+  ok = ok && ReadNumber(f[i], r.score.power) && ReadNumber(f[i + 1], r.score.false_edge_rate) &&
+       ReadInt(f[i + 2], r.score.hamming) && ReadInt(f[i + 3], recovered) &&
+       ReadInt(f[i + 4], r.tests) && ReadInt(f[i + 5], r.not_estimable) &&
+       ReadInt(f[i + 6], r.largest_given) && ReadNumber(f[i + 7], r.timing_simulate_seconds) &&
+       ReadNumber(f[i + 8], r.timing_test_seconds) && ReadNumber(f[i + 9], r.timing_learn_seconds) &&
+       ReadNumber(f[i + 10], r.timing_score_seconds);
+  r.score.class_recovered = recovered != 0;
+  if (!ok) return std::nullopt;
+  return r;
+}
+
+std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
+                             const metrics::CellSummary& s) {
+  std::ostringstream o;
+  auto interval = [&o](const metrics::Interval& i) {
+    o << "," << Num(i.estimate) << "," << Num(i.low) << "," << Num(i.high);
+  };
+  o << cell.index << "," << Num(cell.length) << "," << Num(cell.level) << "," << cell.hidden_count
+    << "," << (cell.stationarity ? Num(*cell.stationarity) : "") << "," << learner << ","
+    << s.replicates << "," << s.failed;
+  interval(s.power);
+  interval(s.false_edge_rate);
+  interval(s.class_recovery);
+  interval(s.hamming);
+  interval(s.tests);
+  interval(s.largest_given);
+  o << "," << s.totals.solid << "," << s.totals.solid_found << "," << s.totals.dashed << ","
+    << s.totals.dashed_found << "," << s.totals.reported << "," << s.totals.false_edges;
+  interval(s.seconds);
+  return o.str();
+}
+
+metrics::ReplicateRecord RecordOf(const ReplicateRow& row) {
+  metrics::ReplicateRecord r;
+  r.ok = row.ok;
+  r.score = row.score;
+  r.tests = row.tests;
+  r.largest_given = row.largest_given;
+  r.seconds = row.timing_learn_seconds;
+  return r;
+}
+
+}  // namespace locind::app

@@ -1,0 +1,218 @@
+#include "app/results/results_writer.h"
+
+#include <filesystem>
+#include <sstream>
+
+#include "app/io/atomic_file.h"
+#include "app/io/graph_json.h"
+#include "app/study/truth_drawings.h"
+#include "app/io/svg_render.h"
+
+namespace locind::app {
+namespace {
+
+std::string Range(const ValueRange& r) {
+  if (r.IsFixed()) return Num(r.low);
+  std::string text = "[";
+  return text.append(Num(r.low)).append(", ").append(Num(r.high)).append("]");
+}
+
+std::string OptionalNumber(const std::optional<double>& v) { return v ? Num(*v) : "null"; }
+
+std::string TruthJson(const StudySpec& study) {
+  std::ostringstream o;
+  const TruthSpec& t = study.truth;
+  o << "{\"truths\": " << t.truths << ", ";
+  if (!t.random) {
+    o << "\"graph\": " << GraphJson(t.explicit_graph.graph) << ", \"hidden\": [";
+    for (size_t i = 0; i < t.explicit_graph.hidden.size(); ++i) {
+      o << (i ? ", " : "") << JsonString(t.explicit_graph.graph.name(t.explicit_graph.hidden[i]));
+    }
+    o << "]}";
+    return o.str();
+  }
+  const graph::RandomGraphOptions& r = t.random_graph;
+  const char* loops = r.loops == graph::LoopPolicy::kAll ? "all" : r.loops == graph::LoopPolicy::kNone ? "none" : "random";
+  o << "\"random\": {\"nodes\": " << r.nodes << ", \"edge_probability\": " << Num(r.edge_probability)
+    << ", \"in_degree\": " << (r.expected_in_degree >= 0 ? Num(r.expected_in_degree) : "null")
+    << ", \"loops\": \"" << loops << "\", \"loop_probability\": " << Num(r.loop_probability)
+    << ", \"hidden_count\": " << r.hidden_count << ", \"hidden_positions\": [";
+  for (size_t i = 0; i < r.hidden_list.size(); ++i) o << (i ? ", " : "") << r.hidden_list[i] + 1;
+  o << "]}}";
+  return o.str();
+}
+
+std::string ProcessJson(const StudySpec& study) {
+  std::ostringstream o;
+  if (study.events) {
+    const EventProcessSpec& e = study.event_process;
+    o << "{\"events\": {\"kernel\": \"exponential\", \"baseline\": \"" << Range(e.baseline)
+      << "\", \"weight\": \"" << Range(e.weight) << "\", \"loop_weight\": \"" << Range(e.loop_weight)
+      << "\", \"decay\": \"" << Range(e.decay) << "\", \"spectral_radius\": "
+      << OptionalNumber(e.spectral_radius) << ", \"burn_in\": " << Num(e.burn_in)
+      << ", \"event_cap\": " << e.event_cap << "}}";
+  } else {
+    const PathProcessSpec& p = study.path_process;
+    o << "{\"paths\": {\"drift\": \"" << (p.tanh ? "tanh" : "linear") << "\", \"self_rate\": \""
+      << Range(p.self_rate) << "\", \"coupling\": \"" << Range(p.coupling) << "\", \"noise\": "
+      << Num(p.noise) << ", \"step\": " << Num(p.step) << ", \"interval\": " << Num(p.interval)
+      << ", \"burn_in\": " << Num(p.burn_in) << ", \"method\": \"" << (p.exact ? "exact" : "euler")
+      << "\", \"drift_bound\": " << OptionalNumber(p.drift_bound) << "}}";
+  }
+  return o.str();
+}
+
+std::string TruthsJson(const StudyTruths& truths) {
+  std::ostringstream o;
+  o << "[";
+  bool first = true;
+  for (const auto& [id, t] : truths.all()) {
+    o << (first ? "\n    " : ",\n    ") << "{\"label\": " << JsonString(t.label)
+      << ", \"graph\": " << GraphJson(t.truth.graph) << ", \"hidden\": [";
+    for (size_t i = 0; i < t.truth.hidden.size(); ++i) {
+      o << (i ? ", " : "") << JsonString(t.truth.graph.name(t.truth.hidden[i]));
+    }
+    o << "], ";
+    if (t.truth_class.ok()) {
+      std::vector<graph::Edge> dashed;
+      for (size_t i = 0; i < t.truth_class->edges.size(); ++i) {
+        if (t.truth_class->dashed[i]) dashed.push_back(t.truth_class->edges[i]);
+      }
+      o << "\"equivalence_graph\": " << GraphJson(t.truth_class->maximal, dashed) << "}";
+    } else {
+      o << "\"equivalence_graph\": null, \"problem\": " << JsonString(t.truth_class.status().message()) << "}";
+    }
+    first = false;
+  }
+  o << "\n  ]";
+  return o.str();
+}
+
+Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
+  for (const auto& [id, t] : truths.all()) {
+    Result<std::string> svg = RenderSvg(TruthDot(t));
+    if (!svg.ok()) return svg.status();
+    Status s = WriteFileAtomically(dir + "/truth-" + t.label + ".svg", *svg);
+    if (!s.ok()) return s;
+    if (!t.truth_class.ok()) continue;
+    svg = RenderSvg(ClassDot(t));
+    if (!svg.ok()) return svg.status();
+    s = WriteFileAtomically(dir + "/class-" + t.label + ".svg", *svg);
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+}  // namespace
+
+metrics::CellSummary SummarizeCell(const StudySpec& study, const Cell& cell, int learner,
+                                   const std::vector<ReplicateRow>& rows) {
+  std::vector<metrics::ReplicateRecord> records;
+  for (const ReplicateRow& r : rows) records.push_back(RecordOf(r));
+  base::RandomStream random(base::StreamKey{study.seed, cell.key, static_cast<uint64_t>(learner),
+                                              kPurposeSummary});
+  return metrics::Summarize(records, random);
+}
+
+std::string ReplicatesCsv(const std::map<Unit, UnitResult>& units) {
+  std::string out = ReplicateHeader() + "\n";
+  for (const auto& [unit, result] : units) {
+    for (const ReplicateRow& r : result.rows) out += FormatReplicateRow(r) + "\n";
+  }
+  return out;
+}
+
+std::string EdgesCsv(const std::map<Unit, UnitResult>& units) {
+  std::string out = EdgeHeader() + "\n";
+  for (const auto& [unit, result] : units) {
+    for (const std::string& line : result.edge_lines) out += line + "\n";
+  }
+  return out;
+}
+
+std::string NullTestsCsv(const std::map<Unit, UnitResult>& units) {
+  std::string out = NullTestHeader() + "\n";
+  for (const auto& [unit, result] : units) {
+    for (const std::string& line : result.null_test_lines) out += line + "\n";
+  }
+  return out;
+}
+
+std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
+                       const std::map<Unit, UnitResult>& units) {
+  // rows[cell][learner], replicates in order (the map is sorted).
+  std::vector<std::vector<std::vector<ReplicateRow>>> rows(
+      cells.size(), std::vector<std::vector<ReplicateRow>>(study.learners.size()));
+  for (const auto& [unit, result] : units) {
+    for (const ReplicateRow& r : result.rows) {
+      for (size_t l = 0; l < study.learners.size(); ++l) {
+        if (study.learners[l].label == r.learner) rows[unit.cell][l].push_back(r);
+      }
+    }
+  }
+  std::string out = SummaryHeader() + "\n";
+  for (const Cell& c : cells) {
+    for (size_t l = 0; l < study.learners.size(); ++l) {
+      if (rows[c.index][l].empty()) continue;
+      out += FormatSummaryRow(c, study.learners[l].label,
+                              SummarizeCell(study, c, static_cast<int>(l), rows[c.index][l])) + "\n";
+    }
+  }
+  return out;
+}
+
+std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths) {
+  std::ostringstream o;
+  o << "{\n  \"program\": \"locind\",\n  \"version\": \"" << kLocindVersion << "\",\n"
+    << "  \"name\": " << JsonString(study.name) << ",\n  \"seed\": " << study.seed << ",\n"
+    << "  \"streams\": \"every random stream is keyed by (seed, cell key, replicate, purpose); "
+       "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap; truths use the "
+       "key of 'truth hidden=<factor>' and the truth index as replicate\",\n"
+    << "  \"truth\": " << TruthJson(study) << ",\n  \"process\": " << ProcessJson(study) << ",\n"
+    << "  \"replicates\": " << study.grid.replicates << ",\n  \"cells\": [";
+  for (size_t i = 0; i < cells.size(); ++i) {
+    const Cell& c = cells[i];
+    o << (i ? ",\n    " : "\n    ") << "{\"cell\": " << c.index << ", \"label\": " << JsonString(c.label)
+      << ", \"key\": " << c.key << ", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
+      << ", \"hidden_count\": " << c.hidden_count
+      << ", \"stationarity_target\": " << OptionalNumber(c.stationarity) << "}";
+  }
+  o << "\n  ],\n  \"learners\": [";
+  for (size_t i = 0; i < study.learners.size(); ++i) {
+    const LearnerSpec& l = study.learners[i];
+    o << (i ? ",\n    " : "\n    ") << "{\"label\": " << JsonString(l.label) << ", \"method\": "
+      << JsonString(l.method) << ", \"test\": " << JsonString(l.test);
+    if (l.method == "screen") o << ", \"size\": " << l.screening_size;
+    if (l.method == "penalized-fit") o << ", \"penalty\": " << Num(l.penalty > 0 ? l.penalty : 1);
+    o << "}";
+  }
+  o << "\n  ],\n  \"truths\": " << TruthsJson(truths) << "\n}\n";
+  return o.str();
+}
+
+Status WriteResults(const std::string& dir, const StudySpec& study, const std::string& study_text,
+                    const std::vector<Cell>& cells, const StudyTruths& truths,
+                    const std::map<Unit, UnitResult>& units, const Part& part) {
+  std::error_code ec;
+  std::filesystem::create_directories(dir + "/input", ec);
+  if (ec) return Status::Error("cannot create " + dir + "/input: " + ec.message());
+  const std::string input = dir + "/input/" + std::filesystem::path(study.file).filename().string();
+  const std::pair<std::string, std::string> files[] = {
+      {input, study_text},
+      {dir + "/study.json", StudyJson(study, cells, truths)},
+      {dir + "/replicates.csv", ReplicatesCsv(units)},
+      {dir + "/edges.csv", EdgesCsv(units)},
+      {dir + "/null_tests.csv", NullTestsCsv(units)},
+      {dir + "/summary.csv", SummaryCsv(study, cells, units)}};
+  for (const auto& [path, content] : files) {
+    Status s = WriteFileAtomically(path, content);
+    if (!s.ok()) return s;
+  }
+  if (part.parts > 1) {
+    Status s = WriteFileAtomically(dir + "/part.txt", part.Text() + "\n");
+    if (!s.ok()) return s;
+  }
+  return WriteDrawings(dir, truths);
+}
+
+}  // namespace locind::app

@@ -1,0 +1,31 @@
+#include "learners/methods/pairwise_learner.h"
+
+#include "graph/bit_graph.h"
+#include "learners/methods/test_runner.h"
+
+namespace locind::learners {
+
+Result<LearnResult> PairwiseLearner::Learn(const LearnInput& input) {
+  if (input.test == nullptr) return Status::Error("pairwise needs an independence test");
+  const int n = input.test->processes();
+  if (n > graph::kMaxBitGraphNodes) {
+    return graph::NodeLimitError("pairwise", n, graph::kMaxBitGraphNodes);
+  }
+  const auto start = std::chrono::steady_clock::now();
+  TestRunner runner(*input.test, input.level);
+  const graph::Mask all = graph::AllNodes(n);
+  graph::BitGraph g(n);
+  for (int b = 0; b < n; ++b) {
+    for (int a = 0; a < n; ++a) {
+      if (runner.Dependent(a, b, all & ~graph::Bit(a))) g.Add({a, b, graph::EdgeKind::kDirected});
+    }
+  }
+  LearnResult result;
+  result.method = "pairwise";
+  result.graph = graph::ToDmg(g, input.test->names());
+  runner.Fill(result);
+  result.seconds = SecondsSince(start);
+  return result;
+}
+
+}  // namespace locind::learners

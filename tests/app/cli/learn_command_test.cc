@@ -1,0 +1,123 @@
+// `locind learn`: the methods list, oracle runs against the graph engine's
+// equivalence graph, the output files, data runs and bad input.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "app/cli/command.h"
+#include "app/io/input_error.h"
+
+namespace locind::app {
+namespace {
+
+struct Outcome {
+  int code;
+  std::string out, err;
+};
+
+Outcome Learn(const std::vector<std::string>& args) {
+  std::ostringstream out, err;
+  const int code = RunLearnCommand(args, out, err);
+  return {code, out.str(), err.str()};
+}
+
+// examples/alarm_chain.yaml: a -> b, b -> b, h -> a, h -> c, c -> b, h hidden.
+const std::string kExample = "examples/alarm_chain.yaml";
+
+std::string ReadAll(const std::filesystem::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+TEST_CASE("--methods lists name TAB description, one per line") {
+  const Outcome o = Learn({"--methods"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.rfind("pairwise\t", 0) == 0);
+  CHECK(o.out.find("\nmaximal-search\t") != std::string::npos);
+  CHECK(o.out.find("\nexhaustive\t") != std::string::npos);
+  CHECK(o.out.find("\nscreen\t") != std::string::npos);
+}
+
+TEST_CASE("--help prints the usage") {
+  const Outcome o = Learn({"--help"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.rfind("usage: locind learn --methods\n", 0) == 0);
+  CHECK(o.out.find("--oracle FILE") != std::string::npos);
+}
+
+TEST_CASE("--oracle --json prints exactly the class of `graph class --json`") {
+  std::ostringstream out, err;
+  REQUIRE(RunGraphCommand({"class", kExample, "--json"}, out, err) == kExitOk);
+  for (const char* method : {"maximal-search", "exhaustive"}) {
+    const Outcome o = Learn({"--oracle", kExample, "--method", method, "--json"});
+    CHECK(o.code == kExitOk);
+    CHECK(o.out == out.str());
+  }
+}
+
+TEST_CASE("pairwise on the example: the projection's directed edges and more") {
+  const Outcome o = Learn({"--oracle", kExample, "--method", "pairwise"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out ==
+        "nodes: [a, b, c]\n"
+        "edges: [a -> a, a -> b, a -> c, b -> b, c -> a, c -> b, c -> c]\n"
+        "# method pairwise, test oracle, tests 9, not estimable 0, largest conditioning set 2\n");
+}
+
+TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
+  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_command_test";
+  std::filesystem::remove_all(dir);
+  const Outcome o = Learn({"--oracle", kExample, "--method", "screen", "--out", dir.string()});
+  REQUIRE(o.code == kExitOk);
+  CHECK(ReadAll(dir / "graph.json").rfind("{\"nodes\": [\"a\", \"b\", \"c\"]", 0) == 0);
+  CHECK(ReadAll(dir / "graph.dot").find("digraph") != std::string::npos);
+  CHECK(ReadAll(dir / "graph.svg").find("<svg") != std::string::npos);
+  const std::string log = ReadAll(dir / "tests.csv");
+  CHECK(log.rfind("target,sources,given,statistic,df,p_value,status,decision\n", 0) == 0);
+  // The first test: is a independent of its own past given nothing? No.
+  CHECK(log.find("\na,a,,1,0,0,ok,dependent\n") != std::string::npos);
+  std::filesystem::remove_all(dir);
+}
+
+TEST_CASE("a data run: path file with the drift test") {
+  const auto file = std::filesystem::temp_directory_path() / "locind_learn_paths.csv";
+  {
+    std::ofstream out(file);
+    out << "time,x1,x2\n";
+    // x1 a deterministic oscillation, x2 driven by x1 with a lag.
+    double x2 = 0;
+    for (int i = 0; i <= 400; ++i) {
+      const double t = 0.1 * i;
+      const double x1 = std::sin(0.7 * t) + 0.3 * std::sin(5.1 * t);
+      out << t << "," << x1 << "," << x2 << "\n";
+      x2 += 0.1 * (x1 - x2) + 0.05 * std::sin(13.7 * t);
+    }
+  }
+  const Outcome o = Learn({file.string(), "--method", "pairwise"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.rfind("nodes: [x1, x2]\n", 0) == 0);
+  CHECK(o.out.find("test drift-f, tests 4") != std::string::npos);
+  std::filesystem::remove(file);
+}
+
+TEST_CASE("bad input: one line, exit code 2, no output") {
+  const Outcome unknown = Learn({"--oracle", kExample, "--method", "nope"});
+  CHECK(unknown.code == kExitInputError);
+  CHECK(unknown.out.empty());
+  CHECK(unknown.err == "locind learn: unknown method 'nope' (see --methods)\n");
+  CHECK(Learn({"--oracle", kExample}).code == kExitInputError);
+  CHECK(Learn({"--oracle", kExample, "--method", "screen", "--level", "1.5"}).code ==
+        kExitInputError);
+  CHECK(Learn({"--oracle", "no/such/file.yaml", "--method", "screen"}).code == kExitInputError);
+  CHECK(Learn({"--method", "screen"}).code == kExitInputError);
+  const Outcome refused = Learn({"--oracle", kExample, "--method", "screen", "--test", "drift-f"});
+  CHECK(refused.code == kExitInputError);
+}
+
+}  // namespace
+}  // namespace locind::app

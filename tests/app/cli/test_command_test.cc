@@ -1,0 +1,149 @@
+// `locind test`: output layout (text and JSON), agreement with the library
+// tests, and bad input.
+#include <doctest/doctest.h>
+
+#include "tests/app/command_fixture.h"
+#include "base/number_format.h"
+
+#include <filesystem>
+#include <fstream>
+#include <regex>
+#include <sstream>
+
+#include <unistd.h>
+
+#include "app/cli/command.h"
+#include "app/io/event_csv.h"
+#include "app/io/input_error.h"
+#include "app/io/path_csv.h"
+#include "graph/dmg.h"
+#include "learners/independence/drift_test.h"
+#include "learners/independence/hawkes_lr_test.h"
+#include "sim/diffusion_simulator.h"
+#include "sim/hawkes_simulator.h"
+
+namespace locind::app {
+namespace {
+
+using testing::Outcome;
+
+Outcome Run(const std::vector<std::string>& args) {
+  return testing::RunHandler(RunTestCommand, args);
+}
+
+graph::TruthGraph PairTruth() {
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 1);
+  g.AddDirected(0, 0);
+  g.AddDirected(1, 1);
+  return {g, {}};
+}
+
+// Writes one event file and one path file of a -> b into a fresh directory.
+struct Files {
+  std::filesystem::path dir;
+  std::string events, paths;
+  sim::EventData event_data;
+  sim::PathData path_data;
+
+  Files() {
+    dir = std::filesystem::temp_directory_path() / ("locind_test_command_" + std::to_string(getpid()));
+    std::filesystem::create_directories(dir);
+    base::RandomStream r1(1), r2(2);
+    sim::HawkesRunOptions ho;
+    ho.horizon = 300;
+    event_data = sim::SimulateHawkes(sim::ExponentialHawkes(PairTruth(), 0.5, 0.4, 2.0, 0.2), ho, r1).value();
+    sim::PathRunOptions po;
+    po.horizon = 100;
+    path_data = sim::SimulateDiffusion(sim::LinearDiffusion(PairTruth(), 1.0, 0.8, 1.0), po, r2).value();
+    events = (dir / "events.csv").string();
+    paths = (dir / "paths.csv").string();
+    std::ofstream(events) << FormatEventCsv(event_data);
+    std::ofstream(paths) << FormatPathCsv(path_data);
+    // Read back, so the comparison uses exactly what the command reads.
+    event_data = std::get<sim::EventData>(ReadEventCsvFile(events));
+    path_data = std::get<sim::PathData>(ReadPathCsvFile(paths));
+  }
+  ~Files() { std::filesystem::remove_all(dir); }
+};
+
+TEST_CASE("text output lists the query and the result, one key per line") {
+  Files f;
+  const Outcome r = Run({f.events, "--target", "b", "--source", "a", "--given", "b"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.err.empty());
+  const std::regex layout(
+      "target: b\nsources: a\ngiven: b\ntest: hawkes-lr\nstatistic: [0-9.e+-]+\ndf: 3\n"
+      "p_value: [0-9.e+-]+\nstatus: ok\n");
+  CHECK(std::regex_match(r.out, layout));
+  // The same numbers as the library test with the default rate grid.
+  auto features = std::make_shared<learners::HawkesFeatures>(
+      learners::HawkesFeatures::Create(f.event_data, learners::DefaultHawkesRates(f.event_data)).value());
+  const learners::TestResult direct = learners::HawkesLrTest(features).Run({1, {0}, {1}});
+  CHECK(r.out.find("statistic: " + base::FormatNumber(direct.statistic) + "\n") != std::string::npos);
+  CHECK(r.out.find("p_value: " + base::FormatNumber(direct.p_value) + "\n") != std::string::npos);
+}
+
+TEST_CASE("JSON output for paths, with the kind read from the header") {
+  Files f;
+  const Outcome r = Run({f.paths, "--target", "b", "--source", "a", "--given", "b", "--json"});
+  CHECK(r.code == kExitOk);
+  const std::regex layout(
+      "\\{\"target\": \"b\", \"sources\": \\[\"a\"\\], \"given\": \\[\"b\"\\], \"test\": "
+      "\"drift-f\", \"statistic\": [0-9.e+-]+, \"df\": 3, \"p_value\": [0-9.e+-]+, \"status\": "
+      "\"ok\", \"reason\": \"\"\\}\n");
+  CHECK(std::regex_match(r.out, layout));
+  auto test = learners::DriftTest::Create(f.path_data).value();
+  const learners::TestResult direct = test.Run({1, {0}, {1}});
+  CHECK(r.out.find("\"statistic\": " + base::FormatNumber(direct.statistic) + ",") != std::string::npos);
+}
+
+TEST_CASE("test variants, rates and kind are options") {
+  Files f;
+  Outcome r = Run({f.events, "--target", "b", "--source", "a", "--given", "b", "--test",
+                   "hawkes-lr-signed", "--rates", "2", "--kind", "events"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.out.find("test: hawkes-lr-signed\n") != std::string::npos);
+  CHECK(r.out.find("df: 1\n") != std::string::npos);
+  r = Run({f.paths, "--target", "b", "--source", "a", "--test", "drift-robust-wald", "--rates", "1,0.1,0.01"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.out.find("test: drift-robust-wald\n") != std::string::npos);
+  CHECK(r.out.find("df: 4\n") != std::string::npos);
+}
+
+TEST_CASE("not estimable results are printed with their reason") {
+  Files f;
+  sim::EventData few = f.event_data;
+  few.times[1].resize(3);
+  const std::string path = (f.dir / "few.csv").string();
+  std::ofstream(path) << FormatEventCsv(few);
+  const Outcome r = Run({path, "--target", "b", "--source", "a", "--given", "b"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.out.find("status: not estimable: too few events: 'b' has 3, at least 10 needed\n") !=
+        std::string::npos);
+}
+
+TEST_CASE("bad input: one line, exit code 2") {
+  Files f;
+  Outcome r = Run({f.events, "--target", "b", "--source", "q"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == f.events + ": --source: unknown process 'q'\n");
+  r = Run({f.events, "--target", "b", "--source", "a", "--given", "a"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == "locind test: a --source process may not also be in --given\n");
+  r = Run({f.events, "--target", "b", "--source", "b"});
+  CHECK(r.code == kExitInputError);
+  r = Run({f.events, "--target", "b", "--source", "a", "--rates", "0"});
+  CHECK(r.err == f.events + ": --rates: '0' is not a positive number\n");
+  r = Run({f.events, "--target", "b", "--source", "a", "--test", "drift-f"});
+  CHECK(r.code == kExitInputError);
+  r = Run({f.paths, "--target", "b", "--source", "a", "--kind", "events"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.rfind(f.paths + ":1:1: ", 0) == 0);
+  r = Run({f.events, "--source", "a"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.out.empty());
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -1,0 +1,110 @@
+// Reading a result folder back for the report: columns by name, clear
+// FILE:LINE:COLUMN: FIELD messages, plan.csv optional.
+#include "app/results/results_reader.h"
+
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+
+#include "app/results/results_rows.h"
+#include "app/running/study_planner.h"
+
+namespace locind::app {
+namespace {
+
+namespace fs = std::filesystem;
+
+struct Folder {
+  fs::path dir = fs::temp_directory_path() / "locind_report_data_test";
+  Folder() {
+    fs::remove_all(dir);
+    fs::create_directories(dir);
+    Write("summary.csv", SummaryHeader() + "\n" +
+                             "0,250,0.05,2,0.6,pairwise/hawkes-lr,8,1,0.5,0.25,0.75,,,,0,0,0.3,1.5,1,2,12,11,13,1,"
+                             "1,1,10,5,2,0,6,0,0.01,0.005,0.02\n");
+    Write("edges.csv", EdgeHeader() + "\n" +
+                           "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,b,a,b,3.2,0.01,ok,dependent\n");
+    Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68\n");
+  }
+  ~Folder() { fs::remove_all(dir); }
+  void Write(const std::string& name, const std::string& text) const { std::ofstream(dir / name) << text; }
+};
+
+TEST_CASE("the files of a result folder read back by column name") {
+  Folder f;
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE_MESSAGE(d.ok(), (d.ok() ? "" : d.status().message()));
+  REQUIRE(d->summary.size() == 1);
+  const SummaryLine& s = d->summary[0];
+  CHECK(s.length == 250);
+  CHECK(s.hidden_count == 2);
+  CHECK(*s.stationarity_target == 0.6);
+  CHECK(s.learner == "pairwise/hawkes-lr");
+  CHECK(s.replicates == 8);
+  CHECK(s.failed == 1);
+  CHECK(s.power.low == 0.25);
+  CHECK(std::isnan(s.false_edge_rate.estimate));
+  CHECK(s.tests.estimate == 12);
+  CHECK(s.seconds.high == 0.02);
+  REQUIRE(d->edges.size() == 1);
+  CHECK(d->edges[0].edge == "a -> b");
+  CHECK(d->edges[0].reported);
+  CHECK(d->edges[0].truth_status == "solid");
+  REQUIRE(d->null_tests.size() == 1);
+  CHECK(d->null_tests[0].given == "a;c");
+  CHECK(d->null_tests[0].p_value == 0.68);
+  CHECK(d->plan.empty());
+}
+
+TEST_CASE("plan.csv is read when present") {
+  Folder f;
+  LearnerPlan reached;
+  reached.learner = "pairwise/hawkes-lr";
+  reached.reached = true;
+  reached.length = 750;
+  reached.cap = 16000;
+  LearnerPlan missed = reached;
+  missed.learner = "screen/hawkes-lr";
+  missed.reached = false;
+  f.Write("plan.csv", PlanCsv({reached, missed}, PlanTargets{0.8, 0.05}));
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE(d.ok());
+  REQUIRE(d->plan.size() == 2);
+  CHECK(d->plan[0].reached);
+  CHECK(d->plan[0].length == 750);
+  CHECK(d->plan[0].target_power == 0.8);
+  CHECK_FALSE(d->plan[1].reached);
+  CHECK(std::isnan(d->plan[1].length));
+}
+
+TEST_CASE("missing files, ragged rows and bad numbers name file, line, column and field") {
+  Folder f;
+  fs::remove(f.dir / "null_tests.csv");
+  Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE_FALSE(d.ok());
+  CHECK(d.status().message() == (f.dir / "null_tests.csv").string() +
+                                    ": cannot open the file (is this the folder of a finished locind run?)");
+  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1\n");
+  d = ReadReportData(f.dir.string());
+  REQUIRE_FALSE(d.ok());
+  CHECK(d.status().message() == (f.dir / "null_tests.csv").string() + ":2:1: row: 3 fields, the header has 12");
+  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1,l,hawkes-lr,250,a,b,a,1.5,3,high\n");
+  d = ReadReportData(f.dir.string());
+  REQUIRE_FALSE(d.ok());
+  // test_p_value starts at character 101 of the header.
+  CHECK(d.status().message() == (f.dir / "null_tests.csv").string() +
+                                    ":2:101: test_p_value: expected a number, got 'high'");
+  f.Write("summary.csv", "cell,length\n0,250\n");
+  d = ReadReportData(f.dir.string());
+  REQUIRE_FALSE(d.ok());
+  CHECK(d.status().message() == (f.dir / "summary.csv").string() + ":1:1: header: no column 'level'");
+  f.Write("summary.csv", "");
+  d = ReadReportData(f.dir.string());
+  REQUIRE_FALSE(d.ok());
+  CHECK(d.status().message() == (f.dir / "summary.csv").string() + ":1:1: header: the file is empty");
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -1,0 +1,177 @@
+// The study runner: the same files for any thread count and for --part
+// shares joined by merge; a run killed with SIGKILL and started again ends
+// with the files of an uninterrupted run; a second run into a busy folder is
+// refused; a failed replicate is a row, not an abort.
+#include <doctest/doctest.h>
+
+#include <chrono>
+#include <csignal>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <thread>
+
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include "app/cli/command.h"
+#include "app/io/input_error.h"
+#include "app/running/runner_journal.h"
+#include "app/running/runner_mpi.h"
+#include "tests/app/run_folders.h"
+
+namespace locind::app {
+namespace {
+
+namespace fs = std::filesystem;
+
+using namespace locind::testing;
+
+TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2 + 2/2 merged") {
+  Scratch s("locind_runner_test_threads");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  std::string text;
+  REQUIRE(Run({study, "--threads", "1", "--out", s.Path("one")}, &text) == kExitOk);
+  CHECK(text.find("results in " + s.Path("one")) != std::string::npos);
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("two")}) == kExitOk);
+  // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
+  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 9);
+
+  REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
+  REQUIRE(Run({study, "--part", "1/2", "--out", s.Path("p1"), "--threads", "2"}) == kExitOk);
+  CHECK(ReadAll(s.dir / "p1" / "part.txt") == "1/2\n");
+  // Each share holds half of the 2 cells x 4 replicates x 3 learners rows.
+  CHECK(CountLines(s.dir / "p1" / "replicates.csv") == 1 + 12);
+  std::ostringstream out, err;
+  REQUIRE(RunMergeCommand({s.Path("p2"), s.Path("p1"), "--out", s.Path("merged")}, out, err) == kExitOk);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 9);
+  CHECK_FALSE(fs::exists(s.dir / "merged" / "part.txt"));
+
+  {  // merge refuses an incomplete set of shares
+    std::ostringstream o, e;
+    CHECK(RunMergeCommand({s.Path("p1"), "--out", s.Path("bad")}, o, e) == kExitInputError);
+    CHECK(e.str() == "locind merge: missing part(s) 2 of 2\n");
+  }
+}
+
+// Runs `args` in a child process and kills it with SIGKILL once `units`
+// units are committed to the journal of `dir`, then appends a torn line as a
+// kill in the middle of a write would leave. Returns the units committed.
+int RunAndKill(const std::vector<std::string>& args, const fs::path& dir, int units) {
+  const fs::path journal = dir / Journal::FileName();
+  const pid_t child = fork();
+  REQUIRE(child >= 0);
+  if (child == 0) {
+    std::ostringstream out, err;
+    _exit(RunRunCommand(args, out, err));
+  }
+  // Kill it once a few units (journal lines after the header) are committed.
+  const auto deadline = std::chrono::steady_clock::now() + std::chrono::seconds(60);
+  while (CountLines(journal) < units + 1 && std::chrono::steady_clock::now() < deadline) {
+    std::this_thread::sleep_for(std::chrono::milliseconds(2));
+  }
+  kill(child, SIGKILL);
+  int status = 0;
+  waitpid(child, &status, 0);
+  REQUIRE(WIFSIGNALED(status));  // it was killed, not finished
+  CHECK_FALSE(fs::exists(dir / "replicates.csv"));
+  const int committed = CountLines(journal) - 1;
+  std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t0\t1,9,t2,1600";
+  return committed;
+}
+
+TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterrupted run") {
+  Scratch s("locind_runner_test_resume");
+  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
+
+  const int committed =
+      RunAndKill({study, "--threads", "1", "--out", s.Path("killed")}, s.dir / "killed", 3);
+  CHECK(committed >= 3);
+  CHECK(committed < 20);  // 2 cells x 10 replicates: some were still missing
+
+  std::string text;
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("killed")}, &text) == kExitOk);
+  CHECK(text.find(std::to_string(committed) + " of 20 units already done") != std::string::npos);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
+  CHECK(CountLines(s.dir / "killed" / Journal::FileName()) == 21);
+
+  {  // running the finished study again only rewrites the same files
+    REQUIRE(Run({study, "--out", s.Path("killed")}, &text) == kExitOk);
+    CHECK(text.find("20 of 20 units already done") != std::string::npos);
+    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
+  }
+}
+
+TEST_CASE("--part shares merged after one was killed and resumed: the files of one whole run") {
+  Scratch s("locind_runner_test_part_resume");
+  const std::string study = s.Write("tiny.yaml", LongerTinyStudy());
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("whole")}) == kExitOk);
+
+  const int committed =
+      RunAndKill({study, "--part", "1/2", "--out", s.Path("p1")}, s.dir / "p1", 2);
+  CHECK(committed >= 2);
+  CHECK(committed < 10);  // share 1 of 2 holds 10 of the 20 units
+  std::string text;
+  REQUIRE(Run({study, "--part", "1/2", "--threads", "2", "--out", s.Path("p1")}, &text) == kExitOk);
+  CHECK(text.find(std::to_string(committed) + " of 10 units already done") != std::string::npos);
+  REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
+
+  std::ostringstream out, err;
+  REQUIRE(RunMergeCommand({s.Path("p1"), s.Path("p2"), "--out", s.Path("merged")}, out, err) ==
+          kExitOk);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 9);
+}
+
+TEST_CASE("a second run into a folder in use is refused, and so is another study's folder") {
+  Scratch s("locind_runner_test_lock");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  {
+    Result<std::unique_ptr<Journal>> held = Journal::Open(s.Path("busy"), "someone else");
+    REQUIRE(held.ok());
+    std::string text;
+    CHECK(Run({study, "--out", s.Path("busy")}, &text) == kExitFailure);
+    CHECK(text.find("another run is writing into " + s.Path("busy")) != std::string::npos);
+  }
+  std::string text;
+  CHECK(Run({study, "--out", s.Path("busy")}, &text) == kExitFailure);  // lock free, study differs
+  CHECK(text.find("belongs to another study or part") != std::string::npos);
+}
+
+TEST_CASE("a replicate whose simulation fails is a row with status and message") {
+  Scratch s("locind_runner_test_failed");
+  std::string capped = kTinyStudy;
+  capped.replace(capped.find("burn_in: 20}"), 12, "burn_in: 20, event_cap: 40}");
+  const std::string study = s.Write("capped.yaml", capped);
+  std::string text;
+  REQUIRE(Run({study, "--out", s.Path("out")}, &text) == kExitOk);
+  const std::string rows = ReadAll(s.dir / "out" / "replicates.csv");
+  CHECK(rows.find(",failed,simulation: ") != std::string::npos);
+  CHECK(rows.find(",ok,") == std::string::npos);  // 40 events never cover the window
+  const std::string summary = ReadAll(s.dir / "out" / "summary.csv");
+  CHECK(summary.find(",pairwise/hawkes-lr,4,4,") != std::string::npos);  // 4 replicates, 4 failed
+}
+
+TEST_CASE("without the MPI build option, MPI use is refused with the way out") {
+  Scratch s("locind_runner_test_no_mpi");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  std::string text;
+  if (BuiltWithMpi()) {
+    CHECK(Run({study, "--mpi-assign", "round-robin"}, &text) == kExitInputError);
+    CHECK(text == "locind run: --mpi-assign must be dispatch or static\n");
+    return;
+  }
+  CHECK(Run({study, "--mpi-assign", "static", "--out", s.Path("out")}, &text) == kExitInputError);
+  CHECK(text.find("locind run: --mpi-assign: this locind was built without MPI (configure with "
+                  "-DLOCIND_MPI=ON") == 0);
+  ::setenv("OMPI_COMM_WORLD_SIZE", "2", 1);  // as Open MPI's mpirun sets it
+  CHECK(Run({study, "--out", s.Path("out")}, &text) == kExitInputError);
+  ::unsetenv("OMPI_COMM_WORLD_SIZE");
+  CHECK(text.find("locind run: started as one of 2 copies by an MPI launcher, but this locind was "
+                  "built without MPI") == 0);
+  CHECK(text.find("split the study with --part K/N and locind merge") != std::string::npos);
+  CHECK_FALSE(fs::exists(s.dir / "out"));
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -1,0 +1,190 @@
+#include "learners/independence/hawkes_lr_test.h"
+
+#include <cmath>
+
+#include <doctest/doctest.h>
+
+#include "graph/dmg.h"
+#include "base/random_stream.h"
+#include "sim/hawkes_model.h"
+#include "sim/hawkes_simulator.h"
+
+namespace locind::learners {
+namespace {
+
+// A draw of a -> b (a, b self-exciting) on [0, horizon).
+sim::EventData Draw(double weight, double horizon, uint64_t seed) {
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 0);
+  g.AddDirected(1, 1);
+  if (weight > 0) g.AddDirected(0, 1);
+  sim::HawkesModel m = sim::ExponentialHawkes(graph::TruthGraph{g, {}}, 0.5, weight, 2.0, 0.2);
+  sim::HawkesRunOptions o;
+  o.horizon = horizon;
+  o.burn_in = 50;
+  base::RandomStream random(seed);
+  return sim::SimulateHawkes(m, o, random).value();
+}
+
+std::shared_ptr<HawkesFeatures> Features(sim::EventData d) {
+  std::vector<double> rates = DefaultHawkesRates(d);
+  return std::make_shared<HawkesFeatures>(HawkesFeatures::Create(std::move(d), rates).value());
+}
+
+// log L of the linear model evaluated by direct double sums (no recursion).
+double DirectLogLikelihood(const sim::EventData& d, const std::vector<double>& rates, int target,
+                           const std::vector<int>& covariates, const Eigen::VectorXd& x) {
+  double value = 0;
+  for (double t : d.times[target]) {
+    double lambda = x[0];
+    for (size_t c = 0; c < covariates.size(); ++c) {
+      for (size_t k = 0; k < rates.size(); ++k) {
+        for (double s : d.times[covariates[c]]) {
+          if (s < t) lambda += x[1 + c * rates.size() + k] * rates[k] * std::exp(-rates[k] * (t - s));
+        }
+      }
+    }
+    value += std::log(lambda);
+  }
+  value -= x[0] * d.duration();
+  for (size_t c = 0; c < covariates.size(); ++c) {
+    for (size_t k = 0; k < rates.size(); ++k) {
+      for (double s : d.times[covariates[c]]) {
+        value -= x[1 + c * rates.size() + k] * (1 - std::exp(-rates[k] * (d.end - s)));
+      }
+    }
+  }
+  return value;
+}
+
+TEST_CASE("without covariates the fit is the homogeneous Poisson MLE") {
+  // The MLE of a constant rate is count / duration and the maximum is
+  // n log(n / T) - n (common practice, no source: d/dmu (n log mu - mu T) = 0).
+  sim::EventData d = Draw(0.3, 200, 1);
+  const double n = double(d.times[1].size()), t = d.duration();
+  for (HawkesLink link : {HawkesLink::kLinear, HawkesLink::kSoftplus}) {
+    HawkesLrTest test(Features(d), {.link = link});
+    HawkesFit fit = test.Fit(1, {});
+    CHECK(fit.converged);
+    CHECK(fit.log_likelihood == doctest::Approx(n * std::log(n / t) - n).epsilon(1e-9));
+    if (link == HawkesLink::kLinear) CHECK(fit.parameters[0] == doctest::Approx(n / t).epsilon(1e-9));
+  }
+}
+
+TEST_CASE("the linear fit satisfies the KKT conditions of the direct likelihood") {
+  sim::EventData d = Draw(0.4, 150, 2);
+  auto features = Features(d);
+  HawkesLrTest test(features);
+  const std::vector<int> cov = {0, 1};
+  HawkesFit fit = test.Fit(1, cov);
+  REQUIRE(fit.converged);
+  const std::vector<double>& rates = features->rates();
+  CHECK(fit.log_likelihood ==
+        doctest::Approx(DirectLogLikelihood(d, rates, 1, cov, fit.parameters)).epsilon(1e-10));
+  // Central differences of the direct likelihood: zero where the parameter is
+  // positive, <= 0 where it sits at the bound (Karush-Kuhn-Tucker).
+  for (Eigen::Index i = 0; i < fit.parameters.size(); ++i) {
+    const double h = 1e-6;
+    Eigen::VectorXd up = fit.parameters, down = fit.parameters;
+    up[i] += h;
+    down[i] = std::max(0.0, down[i] - h);
+    const double slope = (DirectLogLikelihood(d, rates, 1, cov, up) -
+                          DirectLogLikelihood(d, rates, 1, cov, down)) / (up[i] - down[i]);
+    if (fit.parameters[i] > 1e-6) {
+      CHECK(std::abs(slope) < 1e-2);
+    } else {
+      CHECK(slope < 1e-2);
+    }
+  }
+}
+
+TEST_CASE("a strong effect is found and an absent one is not") {
+  sim::EventData with = Draw(0.5, 1000, 3);
+  HawkesLrTest test(Features(with));
+  TestResult r = test.Run({1, {0}, {1}});
+  CHECK(r.status == TestStatus::kOk);
+  CHECK(r.df == 3);
+  CHECK(r.statistic > 50);
+  CHECK(r.p_value < 1e-8);
+  // The reverse direction b -> a is absent in the truth.
+  TestResult back = test.Run({0, {1}, {0}});
+  CHECK(back.status == TestStatus::kOk);
+  CHECK(back.p_value > 0.001);
+}
+
+TEST_CASE("all variants agree that the statistic is a likelihood ratio") {
+  sim::EventData d = Draw(0.3, 400, 4);
+  auto features = Features(d);
+  HawkesLrTest plain(features);
+  HawkesLrTest chibar(features, {.boundary = BoundaryReference::kChiBarSquared});
+  HawkesLrTest signed_effects(features, {.link = HawkesLink::kSoftplus});
+  const TestQuery q{1, {0}, {1}};
+  const TestResult a = plain.Run(q), b = chibar.Run(q), c = signed_effects.Run(q);
+  CHECK(a.statistic == doctest::Approx(b.statistic));
+  // The chi-bar-squared reference is stochastically smaller: smaller p.
+  CHECK(b.p_value <= a.p_value);
+  CHECK(c.status == TestStatus::kOk);
+  CHECK(c.df == a.df);
+  // With positive effects far from zero intensity, softplus ~ linear.
+  CHECK(c.statistic == doctest::Approx(a.statistic).epsilon(0.15));
+  CHECK(plain.kind() == "hawkes-lr");
+  CHECK(chibar.kind() == "hawkes-lr-chibar");
+  CHECK(signed_effects.kind() == "hawkes-lr-signed");
+}
+
+TEST_CASE("results are cached and features shared between tests") {
+  sim::EventData d = Draw(0.3, 200, 5);
+  auto features = Features(d);
+  HawkesLrTest one(features), two(features, {.link = HawkesLink::kSoftplus});
+  one.Run({1, {0}, {1}});
+  const size_t blocks = features->computed_blocks();
+  two.Run({1, {0}, {1}});
+  CHECK(features->computed_blocks() == blocks);
+  const TestResult again = one.Run({1, {0}, {1}});
+  CHECK(one.distinct_queries() == 1);
+  CHECK(again.status == TestStatus::kOk);
+}
+
+TEST_CASE("inhibition is found by the signed model only") {
+  // a inhibits b under the simulator's softplus link; the linear model
+  // (theta >= 0) cannot express it, the signed model can.
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 1);
+  g.AddDirected(0, 0);
+  sim::HawkesModel m = sim::ExponentialHawkes(graph::TruthGraph{g, {}}, 1.0, 0.3, 2.0);
+  m.link = sim::Link::kSoftplus;
+  for (sim::EdgeKernel& k : m.kernels) {
+    if (k.from == 0 && k.to == 1) k.kernel = sim::Kernel::Exponential(-1.5, 2.0);
+  }
+  sim::HawkesRunOptions o;
+  o.horizon = 1000;
+  o.burn_in = 50;
+  base::RandomStream random(6);
+  auto features = Features(sim::SimulateHawkes(m, o, random).value());
+  HawkesLrTest linear(features), signed_effects(features, {.link = HawkesLink::kSoftplus});
+  const TestResult l = linear.Run({1, {0}, {1}}), s = signed_effects.Run({1, {0}, {1}});
+  REQUIRE(s.status == TestStatus::kOk);
+  CHECK(s.p_value < 1e-6);
+  CHECK(l.statistic < 1.0);
+  // The fitted effect of a on b is negative.
+  const HawkesFit fit = signed_effects.Fit(1, {0, 1});
+  CHECK(fit.parameters.segment(1, features->basis_size()).sum() < 0);
+}
+
+TEST_CASE("not estimable: too few events and a silent source") {
+  sim::EventData d;
+  d.names = {"a", "b", "c"};
+  d.times = {{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12}, {2.5, 7.5}, {}};
+  d.end = 20;
+  HawkesLrTest test(Features(d));
+  TestResult few = test.Run({1, {0}, {1}});
+  CHECK(few.status == TestStatus::kNotEstimable);
+  CHECK(few.reason.find("too few events") == 0);
+  TestResult silent = test.Run({0, {2}, {0}});
+  CHECK(silent.status == TestStatus::kNotEstimable);
+  CHECK(silent.reason.find("singular design") == 0);
+  CHECK(silent.p_value == 1.0);
+}
+
+}  // namespace
+}  // namespace locind::learners
