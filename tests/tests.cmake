@@ -1,4 +1,5 @@
 # Every layer lists its own test files in tests/<layer>/tests.cmake.
+include(tests/base/tests.cmake)
 include(tests/graph/tests.cmake)
 include(tests/sim/tests.cmake OPTIONAL)
 include(tests/learners/tests.cmake OPTIONAL)
