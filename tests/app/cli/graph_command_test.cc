@@ -5,8 +5,11 @@
 #include "tests/app/command_fixture.h"
 
 #include <cstdio>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
+
+#include <unistd.h>
 
 #include "app/cli/command.h"
 #include "app/io/error.h"
@@ -15,6 +18,14 @@ namespace locind::app {
 namespace {
 
 using testing::Outcome;
+
+// A file name of this test process in the temporary folder (parallel ctest
+// processes and other builds never share one).
+std::string Scratch(const std::string& name) {
+  return (std::filesystem::temp_directory_path() /
+          ("locind_graph_command_" + std::to_string(::getpid()) + "_" + name))
+      .string();
+}
 
 Outcome Run(const std::vector<std::string>& args) {
   return testing::RunHandler(RunGraphCommand, args);
@@ -62,7 +73,7 @@ TEST_CASE("graph project and class print the projection and the equivalence grap
 }
 
 TEST_CASE("graph equivalent compares projected graphs") {
-  const std::string other = "/tmp/locind_graph_command_test_other.yaml";
+  const std::string other = Scratch("other.yaml");
   {
     // The maximal graph of the example's class, nodes in another order.
     std::ofstream f(other);
@@ -79,20 +90,20 @@ TEST_CASE("graph equivalent compares projected graphs") {
 }
 
 TEST_CASE("graph draw writes DOT and SVG") {
-  const std::string dot = "/tmp/locind_graph_command_test.dot";
+  const std::string dot = Scratch("class.dot");
   REQUIRE(Run({"draw", kExample, "-o", dot, "--class"}).code == kExitOk);
   std::ifstream in(dot);
   std::stringstream text;
   text << in.rdbuf();
   CHECK(text.str().find("\"a\" -> \"c\" [color=\"#0072B2\", dir=both, arrowtail=normal, "
                         "style=dashed]") != std::string::npos);
-  const std::string svg = "/tmp/locind_graph_command_test.svg";
+  const std::string svg = Scratch("graph.svg");
   REQUIRE(Run({"draw", kExample, "-o", svg}).code == kExitOk);
   std::ifstream svg_in(svg);
   std::stringstream svg_text;
   svg_text << svg_in.rdbuf();
   CHECK(svg_text.str().find("<svg") != std::string::npos);
-  CHECK(Run({"draw", kExample, "-o", "/tmp/x.png"}).code == kExitInputError);
+  CHECK(Run({"draw", kExample, "-o", Scratch("refused.png")}).code == kExitInputError);
   std::remove(dot.c_str());
   std::remove(svg.c_str());
 }

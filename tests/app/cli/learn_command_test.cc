@@ -7,6 +7,8 @@
 #include <fstream>
 #include <sstream>
 
+#include <unistd.h>
+
 #include "app/cli/command.h"
 #include "app/io/error.h"
 
@@ -70,7 +72,8 @@ TEST_CASE("pairwise on the example: the projection's directed edges and more") {
 }
 
 TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
-  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_command_test";
+  const auto dir = std::filesystem::temp_directory_path() /
+                   ("locind_learn_command_test_" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
   const Outcome o = Learn({"--oracle", kExample, "--method", "screen", "--out", dir.string()});
   REQUIRE(o.code == kExitOk);
@@ -85,7 +88,8 @@ TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
 }
 
 TEST_CASE("a data run: path file with the drift test") {
-  const auto file = std::filesystem::temp_directory_path() / "locind_learn_paths.csv";
+  const auto file = std::filesystem::temp_directory_path() /
+                    ("locind_learn_paths_" + std::to_string(::getpid()) + ".csv");
   {
     std::ofstream out(file);
     out << "time,x1,x2\n";

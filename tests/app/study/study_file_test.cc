@@ -5,6 +5,9 @@
 
 #include <filesystem>
 #include <fstream>
+#include <string>
+
+#include <unistd.h>
 #include <sstream>
 
 #include "app/cli/command.h"
@@ -195,7 +198,8 @@ TEST_CASE("an explicit event truth must be stationary at the upper ends of its w
 }
 
 TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output folder") {
-  const std::filesystem::path dir = std::filesystem::temp_directory_path() / "locind_study_file_test";
+  const std::filesystem::path dir = std::filesystem::temp_directory_path() /
+                                    ("locind_study_file_test_" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
   std::filesystem::create_directories(dir);
   const std::string study = (dir / "bad.yaml").string();
