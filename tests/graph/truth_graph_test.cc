@@ -97,7 +97,9 @@ TEST_CASE("hidden nodes: count, names and order") {
   CHECK(t.Observed().size() == 4);
   int x = 0, h = 0;
   for (int v = 0; v < o.nodes; ++v) {
-    const std::string expected = t.IsHidden(v) ? "h" + std::to_string(++h) : "x" + std::to_string(++x);
+    const bool hidden = t.IsHidden(v);
+    std::string expected(1, hidden ? 'h' : 'x');
+    expected += std::to_string(hidden ? ++h : ++x);
     CHECK(t.graph.name(v) == expected);
   }
   o.hidden_list = {0, 5};
