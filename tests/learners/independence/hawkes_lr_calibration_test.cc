@@ -124,8 +124,11 @@ void CheckNull(const std::vector<std::vector<double>>& p) {
 // per-check 99% interval [6, 25] (eight such checks: about an 8% chance that
 // one fails for calibrated tests) the signed variant, then with a softplus
 // scale of a tenth of the rate, rejected 26 of 300 here and the seed was
-// moved to 111. That was wrong; the seed is back at 101
-// and the bands are sized for the number of checks (calibration_checks.h).
+// moved to 111. That was wrong; the seed is back at 101 and the bands are
+// sized for the number of checks (calibration_checks.h). On 2026-12-02 the
+// signed variant still rejects 26 of 300 at seed 101 (printed by Report):
+// inside [3, 31], but P(X >= 26) = 0.005 for a calibrated test (SciPy
+// binom.sf(25, 300, 0.05)), so its calibration deserves a longer look.
 // Runs of 1,000 replicates of this case (seed 11) were measured once by hand
 // on 2026-12-01, not re-run by the suite: rejections at 0.05 / 0.01 / 0.10
 // were 48, 10, 105 (signed), 42, 9, 89 (chi-bar-squared), 6, 0, 13
