@@ -124,6 +124,16 @@ std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const R
   return groups;
 }
 
+// A plan belongs on the panel of its own combination (a plan.csv without
+// the combination columns fits every panel).
+bool PlanFitsGroup(const PlanLine& p, const GroupKey& g) {
+  if (p.level && *p.level != std::get<0>(g)) return false;
+  if (p.hidden_count && *p.hidden_count != std::get<1>(g)) return false;
+  const bool has_target = !std::isnan(std::get<2>(g));
+  if (p.level && p.stationarity_target.has_value() != has_target) return false;
+  return !p.stationarity_target || *p.stationarity_target == std::get<2>(g);
+}
+
 using Pick = metrics::Interval SummaryLine::*;
 
 std::vector<PlotSeries> SeriesOf(const StudySpec& study, const std::vector<const SummaryLine*>& lines, Pick pick) {
@@ -166,12 +176,13 @@ void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupK
     false_edges.target = data.plan.front().target_false_edge_rate;
     false_edges.target_label = "limit " + Num(*false_edges.target);
     for (const PlanLine& p : data.plan) {
-      if (p.reached) power.marks.push_back({StyleOf(study, p.learner), p.length});
+      if (p.reached && PlanFitsGroup(p, group)) power.marks.push_back({StyleOf(study, p.learner), p.length});
     }
     false_edges.marks = power.marks;
   }
   const std::string plan_note = data.plan.empty() ? "" : " Grey dashed: the target of locind plan; dotted "
-                                                         "verticals: each learner's planned length.";
+                                                         "verticals: each learner's planned length for "
+                                                         "this panel's combination (none: not planned).";
   section.figures.push_back(PlotFigure(
       "power" + suffix, "Power against observation length (" + GroupText(group) + ")",
       "Share of the solid edges of the maximal graph N that were reported, pooled over replicates; bands "

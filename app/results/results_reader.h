@@ -46,6 +46,11 @@ struct PlanLine {
   double target_false_edge_rate = 0;
   bool reached = false;
   double length = 0;  // NaN when not reached
+  // The combination planned for (plan.csv from before these columns: unset,
+  // the plan then applies to every panel).
+  std::optional<double> level;
+  std::optional<int> hidden_count;
+  std::optional<double> stationarity_target;
 };
 
 struct ReportData {

@@ -70,9 +70,70 @@ TEST_CASE("no length up to the cap reaches the target: a plain statement") {
   CHECK(plans[0].steps[1].length == 150);
   CHECK(PlanReport(plans, targets) ==
         "targets: power >= 0.9, false-edge rate <= 0.2\n"
+        "at level 0.05:\n"
         "pairwise/hawkes-lr: no length up to 150 reaches the targets (best power 0.89 [0.57, 0.98] at "
         "length 100, false-edge rate there 0.00 [0.00, 0.32])\n");
 }
+
+// ---- combinations of the other grid factors ----
+
+StudySpec Factors() {
+  const std::string text =
+      "seed: 5\n"
+      "truth: {random: {nodes: 3, edge_probability: 0.5}}\n"
+      "process: {events: {baseline: 0.5, weight: 0.2, decay: 2, burn_in: 20}}\n"
+      "grid: {lengths: [100], replicates: 2, levels: [0.05, 0.2], hidden: [0, 1], hidden_mode: fixed-observed}\n"
+      "learners: [{method: maximal-search, test: oracle}]\n";
+  StudyOrErrors read = ParseStudyText(text, "factors.yaml");
+  REQUIRE(std::holds_alternative<StudySpec>(read));
+  return std::get<StudySpec>(read);
+}
+
+TEST_CASE("every combination of hidden count and level gets its own plan, named in plan.csv") {
+  const StudySpec s = Factors();
+  const std::vector<PlanCombination> all = PlanCombinations(s);
+  REQUIRE(all.size() == 4);  // 2 hidden counts x 2 levels, in grid order
+  CHECK(all[0].Text() == "level 0.05, 0 hidden");
+  CHECK(all[1].Text() == "level 0.2, 0 hidden");
+  CHECK(all[3].Text() == "level 0.2, 1 hidden");
+  std::vector<std::string> log;
+  const PlanTargets targets{0.5, 0.5};
+  const auto plans = PlanLengths(s, targets, 1, [&log](const std::string& l) { log.push_back(l); });
+  REQUIRE(plans.size() == 4);
+  CHECK(plans[2].at.hidden_count == 1);
+  CHECK(plans[2].at.level == 0.05);
+  // The oracle meets any target at the first length: one log line per combination.
+  REQUIRE(log.size() == 4);
+  CHECK(log[3].rfind("plan: maximal-search/oracle (level 0.2, 1 hidden) at length 100:", 0) == 0);
+  const std::string csv = PlanCsv(plans, targets);
+  CHECK(csv.find(",level,hidden_count,stationarity_target\n") != std::string::npos);
+  // The last row: cap (64 x the largest grid length), level, hidden count, no target.
+  CHECK(csv.find(",6400,0.2,1,\n") != std::string::npos);
+  const std::string report = PlanReport(plans, targets);
+  CHECK(report.find("at level 0.05, 1 hidden:\nmaximal-search/oracle: length 100") != std::string::npos);
+}
+
+TEST_CASE("--at narrows the combinations; a choice matching none is an error listing them") {
+  const StudySpec s = Factors();
+  Result<std::vector<PlanCombination>> picked = PickCombinations(s, "hidden=1, level=0.2");
+  REQUIRE(picked.ok());
+  REQUIRE(picked->size() == 1);
+  CHECK(picked->front().Text() == "level 0.2, 1 hidden");
+  picked = PickCombinations(s, "level=0.2");
+  REQUIRE(picked.ok());
+  CHECK(picked->size() == 2);
+  CHECK(PickCombinations(s, "").value().size() == 4);
+  picked = PickCombinations(s, "level=0.3");
+  REQUIRE_FALSE(picked.ok());
+  CHECK(picked.status().message() ==
+        "no combination of the study matches 'level=0.3' (the study has: level 0.05, 0 hidden; level 0.2, 0 "
+        "hidden; level 0.05, 1 hidden; level 0.2, 1 hidden)");
+  picked = PickCombinations(s, "colour=1");
+  REQUIRE_FALSE(picked.ok());
+  CHECK(picked.status().message() == "cannot read 'colour=1' (expected hidden=N, target=X or level=X)");
+}
+
+// ---- end combinations ----
 
 }  // namespace
 }  // namespace locind::app
