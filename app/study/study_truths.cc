@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 
 #include "app/io/event_csv.h"
 #include "base/hashing.h"
@@ -68,6 +69,13 @@ std::vector<int> NewIndex(const PreparedTruth& truth) {
   return to;
 }
 
+// Four significant digits: notes for people (study.json keeps exact values).
+std::string Short(double v) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.4g", v);
+  return text;
+}
+
 // Counts values outside [low, high] (after rescaling) and their extent.
 struct RangeCheck {
   int outside = 0, total = 0;
@@ -84,7 +92,7 @@ struct RangeCheck {
     if (outside == 0) return "";
     return std::to_string(outside) + " of " + std::to_string(total) + " " + what + " outside [" +
            base::FormatNumber(r.low) + ", " + base::FormatNumber(r.high) + "] (now " +
-           base::FormatNumber(smallest) + " to " + base::FormatNumber(largest) + ")";
+           Short(smallest) + " to " + Short(largest) + ")";
   }
 };
 

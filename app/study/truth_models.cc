@@ -1,5 +1,6 @@
 #include "app/study/truth_models.h"
 
+#include <cstdio>
 #include <set>
 #include <sstream>
 
@@ -12,12 +13,19 @@ namespace {
 
 std::string N(double v) { return base::FormatNumber(v); }
 
+// Four significant digits, for lines people read.
+std::string Short(double v) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.4g", v);
+  return text;
+}
+
 std::string Heading(const StudySpec& study, const TruthModel& t, const char* measure) {
   std::ostringstream o;
   o << "truth " << t.truth << " of study " << study.name << " (seed " << study.seed << ")";
   if (t.target) o << ", stationarity target " << N(*t.target);
-  o << "\n" << measure << " as drawn " << N(t.drawn_value) << ", as simulated " << N(t.simulated_value);
-  if (t.scale != 1) o << " (drawn parameters multiplied by " << N(t.scale) << ")";
+  o << "\n" << measure << " as drawn " << Short(t.drawn_value) << ", as simulated " << Short(t.simulated_value);
+  if (t.scale != 1) o << " (drawn parameters multiplied by " << Short(t.scale) << ")";
   if (!t.outside_range.empty()) o << "\nrescaling left the configured ranges: " << t.outside_range;
   o << "\nrerun: locind simulate truths/" << t.label << ".model.yaml --horizon LENGTH --seed S --out data.csv";
   return o.str();
@@ -124,7 +132,7 @@ std::vector<std::string> RescaleWarnings(const std::vector<TruthModel>& models) 
   std::vector<std::string> out;
   for (const TruthModel& t : models) {
     if (t.outside_range.empty()) continue;
-    out.push_back("truth " + t.label + ": rescaling by " + N(t.scale) + " (to " + N(t.simulated_value) +
+    out.push_back("truth " + t.label + ": rescaling by " + Short(t.scale) + " (to " + Short(t.simulated_value) +
                   ") left the configured ranges: " + t.outside_range);
   }
   return out;
