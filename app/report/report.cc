@@ -124,14 +124,10 @@ std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const R
   return groups;
 }
 
-// A plan belongs on the panel of its own combination (a plan.csv without
-// the combination columns fits every panel).
+// A plan belongs on the panel of its own combination only.
 bool PlanFitsGroup(const PlanLine& p, const GroupKey& g) {
-  if (p.level && *p.level != std::get<0>(g)) return false;
-  if (p.hidden_count && *p.hidden_count != std::get<1>(g)) return false;
-  const bool has_target = !std::isnan(std::get<2>(g));
-  if (p.level && p.stationarity_target.has_value() != has_target) return false;
-  return !p.stationarity_target || *p.stationarity_target == std::get<2>(g);
+  const double target = std::get<2>(g);
+  return p.Fits(std::get<0>(g), std::get<1>(g), std::isnan(target) ? std::nullopt : std::optional<double>(target));
 }
 
 using Pick = metrics::Interval SummaryLine::*;

@@ -180,6 +180,12 @@ void ReadPlan(const Table& t, ReportData& d) {
 
 }  // namespace
 
+bool PlanLine::Fits(double panel_level, int panel_hidden_count, std::optional<double> panel_target) const {
+  if (!level) return true;  // plan.csv from before the combination columns
+  return *level == panel_level && (!hidden_count || *hidden_count == panel_hidden_count) &&
+         stationarity_target == panel_target;
+}
+
 Result<ReportData> ReadReportData(const std::string& dir) {
   ReportData d;
   try {

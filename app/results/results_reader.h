@@ -51,6 +51,9 @@ struct PlanLine {
   std::optional<double> level;
   std::optional<int> hidden_count;
   std::optional<double> stationarity_target;
+  // True when the plan is for this combination (the panel of a report); a
+  // plan without the combination columns fits every combination.
+  bool Fits(double panel_level, int panel_hidden_count, std::optional<double> panel_target) const;
 };
 
 struct ReportData {
