@@ -8,7 +8,7 @@
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 namespace locind::app {
 namespace {

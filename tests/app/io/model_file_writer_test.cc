@@ -20,7 +20,7 @@ graph::TruthGraph ThreeNodes() {
 
 ModelSpec ReadBack(const std::string& text) {
   ModelOrError r = ParseModelText(text, "written.yaml");
-  if (auto* e = std::get_if<InputError>(&r)) FAIL(e->ToString() << "\n" << text);
+  if (auto* e = std::get_if<Error>(&r)) FAIL(e->ToString() << "\n" << text);
   return std::get<ModelSpec>(r);
 }
 

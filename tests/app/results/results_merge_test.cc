@@ -10,7 +10,7 @@
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "tests/app/command_fixture.h"
 #include "tests/app/run_folders.h"
 

@@ -6,7 +6,7 @@
 #include <map>
 #include <sstream>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "tests/app/run_folders.h"
 
 namespace locind::app {

@@ -8,7 +8,7 @@
 #include <fstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_file.h"
 #include "tests/app/command_fixture.h"
 

@@ -8,7 +8,7 @@
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_file.h"
 #include "app/study/study_grid.h"
 
@@ -17,8 +17,8 @@ namespace {
 
 std::vector<std::string> Messages(const StudyOrErrors& read) {
   std::vector<std::string> out;
-  if (const auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) out.push_back(e.ToString());
+  if (const auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) out.push_back(e.ToString());
   }
   return out;
 }

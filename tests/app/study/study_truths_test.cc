@@ -15,7 +15,7 @@ namespace {
 
 StudySpec Parse(const std::string& text) {
   StudyOrErrors read = ParseStudyText(text, "t.yaml");
-  if (auto* e = std::get_if<std::vector<InputError>>(&read)) FAIL(e->front().ToString());
+  if (auto* e = std::get_if<std::vector<Error>>(&read)) FAIL(e->front().ToString());
   return std::get<StudySpec>(read);
 }
 

@@ -19,7 +19,7 @@ using namespace locind::testing;
 
 StudySpec Parse(const std::string& text) {
   StudyOrErrors read = ParseStudyText(text, "m.yaml");
-  if (auto* e = std::get_if<std::vector<InputError>>(&read)) FAIL(e->front().ToString());
+  if (auto* e = std::get_if<std::vector<Error>>(&read)) FAIL(e->front().ToString());
   return std::get<StudySpec>(read);
 }
 
@@ -34,7 +34,7 @@ TEST_CASE("locind run writes truths/<label>.model.yaml; read back, it is the sim
   for (int t = 0; t < 2; ++t) {
     const std::string file = s.Path("out/truths/t" + std::to_string(t + 1) + ".model.yaml");
     ModelOrError read = ReadModelFile(file);
-    if (auto* e = std::get_if<InputError>(&read)) FAIL(e->ToString());
+    if (auto* e = std::get_if<Error>(&read)) FAIL(e->ToString());
     const EventModelSpec& back = std::get<EventModelSpec>(std::get<ModelSpec>(read));
     const Result<BuiltHawkes> built = BuildHawkes(spec, truths.Get(-1, t), cells.front());
     REQUIRE(built.ok());
