@@ -68,7 +68,7 @@ TEST_CASE("an events model written and read back has the same parameters") {
   }
 }
 
-TEST_CASE("a paths model written and read back has the same drift matrix, offsets and noise") {
+TEST_CASE("a paths model written and read back has the same drift matrix and offsets and noise") {
   graph::TruthGraph t = ThreeNodes();
   t.graph.AddDirected(0, 0);
   t.graph.AddDirected(2, 2);

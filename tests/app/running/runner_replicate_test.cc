@@ -37,7 +37,7 @@ std::vector<Row> ReadRows(const fs::path& p) {
   return rows;
 }
 
-TEST_CASE("two levels in one study: the same data, the same p-values, decisions by level") {
+TEST_CASE("two levels in one study share data and p-values and differ only in decisions") {
   Scratch s("locind_runner_replicate_test_paired");
   std::string text = kTinyStudy;
   text.replace(text.find("replicates: 4"), 13, "replicates: 4\n  levels: [0.01, 0.3]");

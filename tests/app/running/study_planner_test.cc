@@ -91,7 +91,7 @@ StudySpec Factors() {
   return std::get<StudySpec>(read);
 }
 
-TEST_CASE("every combination of hidden count and level gets its own plan, named in plan.csv") {
+TEST_CASE("every combination of hidden count and level gets its own plan named in plan.csv") {
   const StudySpec s = Factors();
   const std::vector<PlanCombination> all = PlanCombinations(s);
   REQUIRE(all.size() == 4);  // 2 hidden counts x 2 levels, in grid order
@@ -115,7 +115,7 @@ TEST_CASE("every combination of hidden count and level gets its own plan, named 
   CHECK(report.find("at level 0.05, 1 hidden:\nmaximal-search/oracle: length 100") != std::string::npos);
 }
 
-TEST_CASE("--at narrows the combinations; a choice matching none is an error listing them") {
+TEST_CASE("--at narrows the combinations and a choice matching none is an error listing them") {
   const StudySpec s = Factors();
   Result<std::vector<PlanCombination>> picked = PickCombinations(s, "hidden=1, level=0.2");
   REQUIRE(picked.ok());

@@ -217,7 +217,7 @@ TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output fo
 
 // ---- study designs: rescale, hidden_mode ----
 
-TEST_CASE("rescale: down by default, both on request, nothing else") {
+TEST_CASE("rescale is down by default and both on request") {
   const std::string head = "truth: {nodes: [a, b], edges: [a -> b]}\n";
   const std::string tail = "grid: {lengths: [10]}\nlearners: [{method: pairwise, test: oracle}]\n";
   const StudyOrErrors plain = ParseStudyText(head + "process: {events: {spectral_radius: 0.5}}\n" + tail, "r.yaml");
@@ -252,7 +252,7 @@ TEST_CASE("grid.hidden with truth.random.hidden is an error naming both places")
   std::filesystem::remove("designs_hidden_both.yaml");
 }
 
-TEST_CASE("hidden_mode: fixed-observed counts random.nodes as observed; needs grid.hidden") {
+TEST_CASE("hidden_mode fixed-observed counts random.nodes as observed and needs grid.hidden") {
   const std::string head = "truth: {random: {nodes: 62}}\nprocess: {events: {}}\n";
   const std::string learners = "learners: [{method: pairwise, test: oracle}]\n";
   const StudyOrErrors fixed =

@@ -8,7 +8,7 @@
 namespace locind::app {
 namespace {
 
-TEST_CASE("cells that differ only in level share their data key; the cell key still tells them apart") {
+TEST_CASE("cells that differ only in level share their data key but not their cell key") {
   StudyOrErrors read = ParseStudyText(
       "truth: {random: {nodes: 4}}\nprocess: {events: {}}\n"
       "grid: {lengths: [100, 200], levels: [0.01, 0.05], hidden: [1, 2], spectral_radius: [0.4, 0.6]}\n"

@@ -51,7 +51,7 @@ TEST_CASE("rescale down: a stable draw below the target keeps its weights") {
   CHECK(b.outside_range.empty());
 }
 
-TEST_CASE("rescale down: a draw above the target is scaled down to it, and the range note says so") {
+TEST_CASE("rescale down: a draw above the target is scaled down to it and the range note says so") {
   const BuiltHawkes b = Hawkes(Chain("spectral_radius: 0.2"));
   CHECK(b.drawn_radius == doctest::Approx(0.3));
   CHECK(b.spectral_radius == 0.2);
@@ -108,7 +108,7 @@ const char kRandom[] =
     "process: {events: {baseline: [0.1, 0.5], weight: [0.1, 0.3], decay: [1, 3]}}\n"
     "learners: [{method: pairwise, test: oracle}]\n";
 
-TEST_CASE("hidden_mode fixed-observed: every count keeps the same observed processes, edges and parameters") {
+TEST_CASE("hidden_mode fixed-observed: every count keeps the same observed processes and their edges and parameters") {
   const StudySpec s = Parse(std::string(kRandom) + "grid: {lengths: [10], hidden: [0, 1, 2], hidden_mode: fixed-observed}\n");
   const std::vector<Cell> cells = ExpandGrid(s);
   const StudyTruths truths(s, cells);

@@ -23,7 +23,7 @@ StudySpec Parse(const std::string& text) {
   return std::get<StudySpec>(read);
 }
 
-TEST_CASE("locind run writes truths/<label>.model.yaml; read back, it is the simulated model; simulate runs it") {
+TEST_CASE("locind run writes truths/<label>.model.yaml that reads back to the simulated model and runs in locind simulate") {
   Scratch s("locind_truth_models_test_files");
   const std::string study = s.Write("tiny.yaml", kTinyStudy);
   std::string text;
@@ -67,7 +67,7 @@ const char kChain[] =
     "grid: {lengths: [30], replicates: 1, spectral_radius: [0.2, 0.6]}\n"
     "learners: [{method: pairwise, test: oracle}]\n";
 
-TEST_CASE("a stationarity factor: one model per target, drawn and simulated radius, range warnings") {
+TEST_CASE("a stationarity factor gives one model per target with drawn and simulated radius and range warnings") {
   const StudySpec spec = Parse(kChain);
   const std::vector<Cell> cells = ExpandGrid(spec);
   const StudyTruths truths(spec, cells);
