@@ -30,6 +30,7 @@
 #include "app/running/runner_mpi.h"
 #include "app/study/study_cost.h"
 #include "app/study/study_file.h"
+#include "app/study/truth_models.h"
 
 namespace locind::app {
 namespace {
@@ -93,6 +94,11 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   const std::vector<Cell> cells = ExpandGrid(study);
   const StudyTruths truths(study, cells);
   const StudyCost cost = EstimateCost(study, cells, truths);
+  // Rescaled parameters outside their configured ranges: said before any work
+  // (and again in study.json, rescale_warnings).
+  for (const std::string& w : RescaleWarnings(TruthModels(study, cells, truths))) {
+    err << "locind run: warning: " << w << "\n";
+  }
   if (o.check) {
     out << CostText(study, cost, o.threads);
     if (o.part.parts > 1) {

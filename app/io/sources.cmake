@@ -9,6 +9,7 @@ locind_layer(locind_io
     app/io/graph_json.cc
     app/io/error.cc
     app/io/model_file.cc
+    app/io/model_file_writer.cc
     app/io/path_csv.cc
     app/io/svg_render.cc
 )

@@ -248,6 +248,7 @@ class StudyParser {
               : loops == "none" ? graph::LoopPolicy::kNone : graph::LoopPolicy::kRandom;
     o.loop_probability = Bounded(r, "loop_probability", s, 0.5, 0, 1, false, false);
     if (const YAML::Node h = r["hidden"]) {
+      random_hidden_ = h;
       if (h.IsSequence()) {
         std::set<int> seen;
         for (const YAML::Node& item : h) {
@@ -292,7 +293,8 @@ class StudyParser {
   EventProcessSpec ParseEvents(const YAML::Node& e) {
     const std::string s = "process.events";
     EventProcessSpec o;
-    if (!CheckKeys(e, s, {"baseline", "weight", "loop_weight", "decay", "spectral_radius", "burn_in", "event_cap"})) {
+    if (!CheckKeys(e, s, {"baseline", "weight", "loop_weight", "decay", "spectral_radius", "rescale", "burn_in",
+                          "event_cap"})) {
       return o;
     }
     constexpr double kInf = std::numeric_limits<double>::infinity();
@@ -301,6 +303,7 @@ class StudyParser {
     o.loop_weight = Range(e, "loop_weight", s, o.weight, 0, kInf, false);
     o.decay = Range(e, "decay", s, o.decay, 0, kInf, true);
     if (e["spectral_radius"]) o.spectral_radius = Bounded(e, "spectral_radius", s, 0.5, 0, 1, true, true);
+    o.rescale_both = Word(e, "rescale", s, {"down", "both"}) == "both";
     o.burn_in = Bounded(e, "burn_in", s, o.burn_in, 0, kInf, false, true);
     o.event_cap = Whole(e, "event_cap", s, static_cast<int>(o.event_cap), 1, 2'000'000'000);
     return o;
@@ -310,7 +313,7 @@ class StudyParser {
     const std::string s = "process.paths";
     PathProcessSpec o;
     if (!CheckKeys(p, s, {"drift", "self_rate", "coupling", "noise", "step", "interval", "burn_in",
-                          "method", "drift_bound"})) {
+                          "method", "drift_bound", "rescale"})) {
       return o;
     }
     constexpr double kInf = std::numeric_limits<double>::infinity();
@@ -323,6 +326,7 @@ class StudyParser {
     o.burn_in = Bounded(p, "burn_in", s, o.burn_in, 0, kInf, false, true);
     o.exact = Word(p, "method", s, {"euler", "exact"}) == "exact";
     if (p["drift_bound"]) o.drift_bound = Bounded(p, "drift_bound", s, -0.5, -kInf, 0, true, true);
+    o.rescale_both = Word(p, "rescale", s, {"down", "both"}) == "both";
     const double ratio = o.interval / o.step;
     if (std::abs(ratio - std::round(ratio)) > 1e-9 * ratio || std::round(ratio) < 1) {
       Fail(NodeOr(p, "interval"), Join(s, "interval"), "must be a multiple of the step");
@@ -375,7 +379,8 @@ class StudyParser {
   GridSpec ParseGrid(const YAML::Node& g, const StudySpec& study) {
     const std::string s = "grid";
     GridSpec o;
-    if (!CheckKeys(g, s, {"lengths", "replicates", "levels", "hidden", "spectral_radius", "drift_bound"})) {
+    if (!CheckKeys(g, s, {"lengths", "replicates", "levels", "hidden", "hidden_mode", "spectral_radius",
+                          "drift_bound"})) {
       return o;
     }
     constexpr double kInf = std::numeric_limits<double>::infinity();
@@ -385,11 +390,12 @@ class StudyParser {
     if (g["hidden"]) {
       if (!study.truth.random) {
         Fail(g["hidden"], "grid.hidden", "a hidden-count factor needs a random truth");
-      } else if (!study.truth.random_graph.hidden_list.empty()) {
-        Fail(g["hidden"], "grid.hidden", "the random truth lists its hidden positions; give a count instead");
       } else {
-        o.hidden_counts = NumberList<int>(g, "hidden", s, 0, study.truth.random_graph.nodes - 1, false, false, true);
+        ParseHiddenFactor(g, study, o);
       }
+    }
+    if (g["hidden_mode"] && !g["hidden"]) {
+      Fail(g["hidden_mode"], "grid.hidden_mode", "applies to a hidden-count factor (grid.hidden)");
     }
     if (g["spectral_radius"]) {
       if (!study.events) Fail(g["spectral_radius"], "grid.spectral_radius", "spectral_radius applies to events");
@@ -406,6 +412,27 @@ class StudyParser {
       Fail(g["drift_bound"], "grid.drift_bound", "give spectral_radius or drift_bound, not both");
     }
     return o;
+  }
+
+  // ---- hidden-count factor ----
+
+  // grid.hidden and grid.hidden_mode. truth.random.hidden would be silently
+  // replaced by the factor, so giving both is an error naming both places.
+  void ParseHiddenFactor(const YAML::Node& g, const StudySpec& study, GridSpec& o) {
+    const std::string s = "grid";
+    o.hidden_fixed_observed = Word(g, "hidden_mode", s, {"fresh-truth", "fixed-observed"}) == "fixed-observed";
+    if (random_hidden_) {
+      const Error other = ErrorAt(file_, *random_hidden_, "truth.random.hidden", "");
+      Fail(g["hidden"], "grid.hidden",
+            "the hidden-count factor replaces truth.random.hidden (given at " + other.file + ":" +
+                std::to_string(other.line) + ":" + std::to_string(other.column) + "); give one of the two");
+      return;
+    }
+    // fresh-truth: random.nodes counts every node, so at least one stays observed;
+    // fixed-observed: random.nodes counts the observed ones, hidden ones come on top.
+    const int most = o.hidden_fixed_observed ? 64 - study.truth.random_graph.nodes
+                                             : study.truth.random_graph.nodes - 1;
+    o.hidden_counts = NumberList<int>(g, "hidden", s, 0, std::max(0, most), false, false, true);
   }
 
   // ---- learners ----
@@ -522,6 +549,7 @@ class StudyParser {
 
   const std::string& file_;
   std::vector<Error> errors_;
+  std::optional<YAML::Node> random_hidden_;  // truth.random.hidden, when given
 };
 
 }  // namespace

@@ -85,6 +85,39 @@ TEST_CASE("plan.csv is read when present") {
   CHECK(std::isnan(d->plan[1].length));
 }
 
+TEST_CASE("each plan.csv row names its combination and fits only that panel") {
+  Folder f;
+  LearnerPlan one;
+  one.learner = "pairwise/hawkes-lr";
+  one.reached = true;
+  one.length = 750;
+  one.at = PlanCombination{2, 2, 0.6, 0.05};
+  LearnerPlan other = one;
+  other.at = PlanCombination{-1, 1, std::nullopt, 0.2};
+  f.Write("plan.csv", PlanCsv({one, other}, PlanTargets{0.8, 0.05}));
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE(d.ok());
+  REQUIRE(d->plan.size() == 2);
+  CHECK(*d->plan[0].level == 0.05);
+  CHECK(*d->plan[0].hidden_count == 2);
+  CHECK(*d->plan[0].stationarity_target == 0.6);
+  CHECK_FALSE(d->plan[1].stationarity_target);
+  CHECK(d->plan[0].Fits(0.05, 2, 0.6));
+  CHECK_FALSE(d->plan[0].Fits(0.05, 1, 0.6));      // another hidden count
+  CHECK_FALSE(d->plan[0].Fits(0.2, 2, 0.6));       // another level
+  CHECK_FALSE(d->plan[0].Fits(0.05, 2, 0.4));      // another target
+  CHECK_FALSE(d->plan[0].Fits(0.05, 2, std::nullopt));
+  CHECK(d->plan[1].Fits(0.2, 1, std::nullopt));
+  CHECK_FALSE(d->plan[1].Fits(0.2, 1, 0.6));
+  // A plan.csv from before the combination columns fits every panel.
+  f.Write("plan.csv", "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
+                      "conservative_length,cap\npairwise/hawkes-lr,0.8,0.05,yes,750,,,16000\n");
+  const Result<ReportData> old = ReadReportData(f.dir.string());
+  REQUIRE(old.ok());
+  CHECK_FALSE(old->plan[0].level);
+  CHECK(old->plan[0].Fits(0.2, 3, 0.5));
+}
+
 TEST_CASE("missing files, ragged rows and bad numbers name file, line, column and field") {
   Folder f("problems");
   fs::remove(f.dir / "null_tests.csv");
