@@ -228,7 +228,8 @@ void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_
     o << row.cell << "," << row.replicate << "," << row.truth << "," << row.learner << "," << row.test
       << "," << Num(row.length) << "," << names[t.target] << "," << NameList(t.sources, names) << ","
       << NameList(t.given, names) << "," << Num(t.statistic) << "," << Num(t.df) << ","
-      << Num(t.p_value);
+      << Num(t.p_value) << ","
+      << (metrics::AllParentsGiven(truth_class.projected, t.target, t.given) ? "yes" : "no");
     lines.push_back(o.str());
   }
 }
