@@ -36,7 +36,9 @@ std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
 //    self-exciting (or mean-reverting) b needs b in C: the tests put b's own
 //    past in the model only when b is in C (learners/independence/
 //    hawkes_lr_test.h, drift_test.h). A parent through a hidden mediator
-//    (a -> h -> b projects to a -> b) is a parent here too.
+//    (a -> h -> b projects to a -> b) is a parent here too, and a hidden
+//    parent h gives b the loop b -> b (the walk b <- h -> b), so b must then
+//    be in C as well.
 //  - a bidirected edge b <-> x (any x) means a hidden process drives b: the
 //    past of b's hidden parent is in no observed history, so no C makes the
 //    model right, and the answer is false whatever C is.
