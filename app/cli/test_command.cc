@@ -54,8 +54,7 @@ TestOptions ParseOptions(const std::vector<std::string>& args) {
   po::options_description d("locind test DATA.csv --target B --source A1,A2 [--given C1,C2]");
   d.add_options()("target", po::value(&o.target)->required(), "the process b")(
       "source", po::value(&o.sources)->required(), "the processes A, comma-separated")(
-      "given", po::value(&o.given),
-                                   "the processes C, comma-separated (include B for its own past)")(
+      "given", po::value(&o.given), "the processes C, comma-separated (include B for its own past)")(
       "kind", po::value(&o.kind), "events or paths (default: from the header)")(
       "test", po::value(&o.test), "test name")("rates", po::value(&o.rates), "rates, comma-separated")(
       "json", "print JSON")("data", po::value(&o.data)->required(), "data file");
@@ -192,7 +191,8 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
         << ", \"reason\": " << JsonString(r.reason) << "}\n";
     return;
   }
-  out << "query: " << QueryText(names, q) << "\ntarget: " << names[q.target] << "\nsources: " << NameList(q.sources, names, false)
+  out << "query: " << QueryText(names, q) << "\ntarget: " << names[q.target]
+      << "\nsources: " << NameList(q.sources, names, false)
       << "\ngiven: " << NameList(q.given, names, false) << "\ntest: " << test.kind()
       << "\nstatistic: " << base::FormatNumber(r.statistic) << "\ndf: " << base::FormatNumber(r.df)
       << "\np_value: " << base::FormatNumber(r.p_value)
