@@ -38,10 +38,12 @@ std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
 //    hawkes_lr_test.h, drift_test.h). A parent through a hidden mediator
 //    (a -> h -> b projects to a -> b) is a parent here too, and a hidden
 //    parent h gives b the loop b -> b (the walk b <- h -> b), so b must then
-//    be in C as well.
-//  - a bidirected edge b <-> x (any x) means a hidden process drives b: the
-//    past of b's hidden parent is in no observed history, so no C makes the
-//    model right, and the answer is false whatever C is.
+//    be in C as well. The answer is read off the projection, which cannot
+//    tell a hidden process that drives b alone from b's own loop: such a b
+//    counts as fully given when b is in C.
+//  - a bidirected edge b <-> x (any x) means a hidden process drives b and
+//    x: its past is in no observed history, yet it moves both, so no C
+//    makes the model right, and the answer is false whatever C is.
 // A true answer is about the parent set only: the kernel shape can still
 // differ from the test's (an effect through a hidden mediator is a
 // convolution of kernels).

@@ -281,9 +281,10 @@ ReportSection CalibrationSection(const StudySpec& study, const std::vector<Cell>
                         "(b mu-separated from A given C in the latent projection), one per distinct query and "
                         "replicate, over all learners using that test at that length. The plots are split by "
                         "whether the test's model can be right: 'all parents given' when C holds every parent "
-                        "of b in the projection (b itself when b has a loop) and no hidden process drives b "
-                        "(no bidirected edge at b); otherwise a parent is omitted or hidden and the test may "
-                        "reject more often than its level. A calibrated test keeps its points inside the grey "
+                        "of b in the projection (b itself when b has a loop) and b has no bidirected edge (a "
+                        "hidden process driving b and another process); otherwise a parent is omitted or "
+                        "hidden and the test may reject more often than its level. A calibrated test keeps its "
+                        "points inside the grey "
                         "band around the diagonal; points below it mean too many rejections (false edges), "
                         "points above it a conservative test (lost power).",
                         {}};
