@@ -5,6 +5,7 @@
 #include <cmath>
 #include <limits>
 
+#include <boost/math/distributions/beta.hpp>
 #include <boost/math/distributions/normal.hpp>
 
 namespace locind::metrics {
@@ -51,6 +52,25 @@ Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
   const size_t lo = static_cast<size_t>(std::floor(alpha / 2 * resamples));
   const size_t hi = static_cast<size_t>(std::ceil((1 - alpha / 2) * resamples)) - 1;
   return {mean, means[std::min(lo, means.size() - 1)], means[std::min(hi, means.size() - 1)]};
+}
+
+// --- Exact binomial interval ------------------------------------------------
+
+Interval ClopperPearsonInterval(int64_t successes, int64_t trials, double confidence) {
+  assert(successes >= 0 && successes <= trials && confidence > 0 && confidence < 1);
+  if (trials == 0) return {kNaN, kNaN, kNaN};
+  const double x = static_cast<double>(successes);
+  const double n = static_cast<double>(trials);
+  const double tail = (1 - confidence) / 2;
+  // The Beta quantiles are the inversions of the two binomial tail
+  // probabilities (Clopper & Pearson 1934); the ends have no Beta law (a
+  // parameter would be 0) and are exact.
+  const double low =
+      successes == 0 ? 0.0 : boost::math::quantile(boost::math::beta_distribution<double>(x, n - x + 1), tail);
+  const double high = successes == trials
+                          ? 1.0
+                          : boost::math::quantile(boost::math::beta_distribution<double>(x + 1, n - x), 1 - tail);
+  return {x / n, low, high};
 }
 
 }  // namespace locind::metrics

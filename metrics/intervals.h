@@ -30,4 +30,15 @@ Interval WilsonInterval(int64_t successes, int64_t trials, double confidence = 0
 Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
                                base::RandomStream& random, double confidence = 0.95);
 
+// --- Exact binomial interval ------------------------------------------------
+// Clopper-Pearson interval for a binomial proportion (Clopper & Pearson 1934,
+// Biometrika 26(4)): the bounds are quantiles of Beta(x, n - x + 1) and
+// Beta(x + 1, n - x) at (1 - confidence) / 2 and (1 + confidence) / 2; the
+// lower bound is 0 at x = 0 and the upper bound 1 at x = n. Coverage is at
+// least `confidence` for every true proportion (it is conservative), which
+// is what a "rejects too often" warning needs. Used for the rejection share
+// of true-null tests (calibration.csv). No trials: all three NaN.
+// REQUIRES: 0 <= successes <= trials; 0 < confidence < 1.
+Interval ClopperPearsonInterval(int64_t successes, int64_t trials, double confidence = 0.95);
+
 }  // namespace locind::metrics

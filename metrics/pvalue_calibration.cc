@@ -32,6 +32,19 @@ std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
   return kept;
 }
 
+// --- Can the test's model be right? -----------------------------------------
+
+bool AllParentsGiven(const graph::Dmg& projected, int target, const std::vector<int>& given) {
+  // A bidirected edge at b: a hidden common driver (Mogensen & Hansen 2020,
+  // Ann. Statist. 48(1), Sec. 3: a <-> b stands for a hidden process with
+  // directed paths into both), whose past no observed history carries.
+  if (!projected.Siblings(target).empty()) return false;
+  for (int parent : projected.Parents(target)) {
+    if (std::find(given.begin(), given.end(), parent) == given.end()) return false;
+  }
+  return true;
+}
+
 std::vector<QqPoint> UniformQq(std::vector<double> p_values, double coverage) {
   std::sort(p_values.begin(), p_values.end());
   const double n = static_cast<double>(p_values.size());

@@ -27,6 +27,29 @@ namespace locind::metrics {
 std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
                                      const std::vector<learners::TestRecord>& log, size_t cap);
 
+// --- Can the test's model be right? -----------------------------------------
+// True when the given set C holds every parent of `target` b in `projected`
+// (the truth's latent projection) and b has no bidirected edge there; then
+// a model of b's intensity (or drift) on the histories of C has the true
+// parent set, and a true-null test of it can hold its level. In detail:
+//  - every x with x -> b must be in C; this includes the loop b -> b, so a
+//    self-exciting (or mean-reverting) b needs b in C: the tests put b's own
+//    past in the model only when b is in C (learners/independence/
+//    hawkes_lr_test.h, drift_test.h). A parent through a hidden mediator
+//    (a -> h -> b projects to a -> b) is a parent here too, and a hidden
+//    parent h gives b the loop b -> b (the walk b <- h -> b), so b must then
+//    be in C as well. The answer is read off the projection, which cannot
+//    tell a hidden process that drives b alone from b's own loop: such a b
+//    counts as fully given when b is in C.
+//  - a bidirected edge b <-> x (any x) means a hidden process drives b and
+//    x: its past is in no observed history, yet it moves both, so no C
+//    makes the model right, and the answer is false whatever C is.
+// A true answer is about the parent set only: the kernel shape can still
+// differ from the test's (an effect through a hidden mediator is a
+// convolution of kernels).
+// REQUIRES: 0 <= target < projected.size(); given holds node indices.
+bool AllParentsGiven(const graph::Dmg& projected, int target, const std::vector<int>& given);
+
 struct QqPoint {
   double expected = 0;   // i / (n + 1)
   double observed = 0;   // i-th smallest p-value

@@ -29,4 +29,4 @@ echo "== The length each learner needs for power 0.8 with at most 5% false edges
 echo "== The report, redrawn with the plan's targets"
 "$bin" report "$study_out"
 echo "== Study results in $study_out/: report.html (open it in a browser; figures also in figures/),"
-echo "   summary.csv (the table locind run printed), replicates.csv, edges.csv, null_tests.csv, plan.csv, study.json"
+echo "   summary.csv (the table locind run printed), replicates.csv, edges.csv, null_tests.csv, calibration.csv, plan.csv, study.json"

@@ -9,9 +9,13 @@
 // given. Tests: hawkes-lr (default for events), hawkes-lr-chibar,
 // hawkes-lr-signed; drift-f (default for paths), drift-robust-wald. --rates
 // sets the exponential rate grid (events) or the filter rates (paths).
-// Prints target, sources, given, test, statistic, df, p_value and status
-// (with the reason when not estimable), one "key: value" per line, or one
-// JSON object with --json.
+// Prints the query in words (b, A and C by name, and whether b's own past is
+// in C), then target, sources, given, test, statistic, df, p_value and
+// status (with the reason when not estimable), one "key: value" per line, or
+// one JSON object with --json (the words under "query", the own-past flag
+// under "target_past_given"). When --given leaves out the target, a warning
+// goes to standard error: the test then models b without its own history,
+// which is almost never the intended question.
 #include <algorithm>
 #include <boost/program_options.hpp>
 #include <fstream>
@@ -50,7 +54,7 @@ TestOptions ParseOptions(const std::vector<std::string>& args) {
   po::options_description d("locind test DATA.csv --target B --source A1,A2 [--given C1,C2]");
   d.add_options()("target", po::value(&o.target)->required(), "the process b")(
       "source", po::value(&o.sources)->required(), "the processes A, comma-separated")(
-      "given", po::value(&o.given), "the processes C, comma-separated")(
+      "given", po::value(&o.given), "the processes C, comma-separated (include B for its own past)")(
       "kind", po::value(&o.kind), "events or paths (default: from the header)")(
       "test", po::value(&o.test), "test name")("rates", po::value(&o.rates), "rates, comma-separated")(
       "json", "print JSON")("data", po::value(&o.data)->required(), "data file");
@@ -147,12 +151,38 @@ std::string NameList(const std::vector<int>& nodes, const std::vector<std::strin
   return json ? out + "]" : out;
 }
 
+bool TargetPastGiven(const learners::TestQuery& q) {
+  return std::binary_search(q.given.begin(), q.given.end(), q.target);
+}
+
+// "target b, sources {a}, given {b, c} (the target's own past is included)".
+std::string QueryText(const std::vector<std::string>& names, const learners::TestQuery& q) {
+  const auto set = [&names](const std::vector<int>& nodes) {
+    std::string out = "{";
+    for (size_t i = 0; i < nodes.size(); ++i) out += (i ? ", " : "") + names[nodes[i]];
+    return out + "}";
+  };
+  return "target " + names[q.target] + ", sources " + set(q.sources) + ", given " + set(q.given) +
+         (TargetPastGiven(q) ? " (the target's own past is included)"
+                             : " (the target's own past is NOT included)");
+}
+
+void WarnWithoutTargetPast(const std::vector<std::string>& names, const learners::TestQuery& q,
+                           std::ostream& err) {
+  if (TargetPastGiven(q)) return;
+  const std::string& b = names[q.target];
+  err << "locind test: warning: --given does not include the target " << b << ", so the test leaves out "
+      << b << "'s own history (almost never intended; add " << b << " to --given)\n";
+}
+
 void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
            const learners::TestResult& r, bool json, std::ostream& out) {
   const std::vector<std::string>& names = test.names();
   const bool ok = r.status == learners::TestStatus::kOk;
   if (json) {
-    out << "{\"target\": " << JsonString(names[q.target])
+    out << "{\"query\": " << JsonString(QueryText(names, q))
+        << ", \"target_past_given\": " << (TargetPastGiven(q) ? "true" : "false")
+        << ", \"target\": " << JsonString(names[q.target])
         << ", \"sources\": " << NameList(q.sources, names, true)
         << ", \"given\": " << NameList(q.given, names, true) << ", \"test\": "
         << JsonString(test.kind()) << ", \"statistic\": " << base::FormatNumber(r.statistic)
@@ -161,18 +191,20 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
         << ", \"reason\": " << JsonString(r.reason) << "}\n";
     return;
   }
-  out << "target: " << names[q.target] << "\nsources: " << NameList(q.sources, names, false)
+  out << "query: " << QueryText(names, q) << "\ntarget: " << names[q.target]
+      << "\nsources: " << NameList(q.sources, names, false)
       << "\ngiven: " << NameList(q.given, names, false) << "\ntest: " << test.kind()
       << "\nstatistic: " << base::FormatNumber(r.statistic) << "\ndf: " << base::FormatNumber(r.df)
       << "\np_value: " << base::FormatNumber(r.p_value)
       << "\nstatus: " << (ok ? "ok" : "not estimable: " + r.reason) << "\n";
 }
 
-int Test(const std::vector<std::string>& args, std::ostream& out) {
+int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   const TestOptions o = ParseOptions(args);
   const bool events = o.kind.empty() ? LooksLikeEventFile(o.data) : o.kind == "events";
   std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o) : PathTest(o);
   const learners::TestQuery query = MakeQuery(*test, o);
+  WarnWithoutTargetPast(test->names(), query, err);
   Print(*test, query, test->Run(query), o.json, out);
   return kExitOk;
 }
@@ -181,7 +213,7 @@ int Test(const std::vector<std::string>& args, std::ostream& out) {
 
 int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   return GuardCommand("test", err, [&] {
-    return Test(args, out);
+    return Test(args, out, err);
   });
 }
 

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 #include <map>
 #include <set>
@@ -11,6 +12,7 @@
 #include "app/io/atomic_file.h"
 #include "app/report/report_drawings.h"
 #include "app/report/report_figures.h"
+#include "app/results/results_calibration.h"
 #include "app/results/results_rows.h"
 #include "app/io/svg_render.h"
 
@@ -217,39 +219,93 @@ std::string Slug(const std::string& text) {
   return out;
 }
 
-ReportSection CalibrationSection(const ReportData& data) {
+// --- Calibration: QQ plots split by all_parents_given, rejection table ------
+
+std::string TagText(bool all_parents_given) {
+  return all_parents_given ? "all parents given" : "a parent omitted or hidden";
+}
+
+// The level the QQ captions count rejections at: the study's level when it
+// has one, else 0.05 (the table has every level).
+double QqLevel(const StudySpec& study) {
+  return study.grid.levels.size() == 1 ? study.grid.levels.front() : kCalibrationLevel;
+}
+
+void AddQqFigures(const StudySpec& study, const ReportData& data, ReportSection& section) {
+  // (test, length, tag) -> p-values, each distinct (cell, replicate, query) once.
+  std::map<std::tuple<std::string, double, bool>, std::vector<double>> pooled;
+  for (const NullTestLine* n : DistinctNullTests(data.null_tests)) {
+    pooled[{n->test, n->length, !n->all_parents_given}].push_back(n->p_value);
+  }
+  const double level = QqLevel(study);
+  for (const auto& [key, p_values] : pooled) {
+    const auto& [test, length, missing] = key;
+    QqPlot plot;
+    plot.title = test + ", length " + Num(length) + (missing ? ", parent missing" : ", parents given");
+    plot.points = metrics::UniformQq(p_values);
+    plot.level = level;
+    plot.share_at_level = metrics::ShareAtOrBelow(p_values, level);
+    section.figures.push_back(
+        {"qq-" + Slug(test) + "-" + Slug(Num(length)) + (missing ? "-parent-missing" : "-parents-given"),
+         "P-values under true nulls: " + test + " at length " + Num(length) + ", " + TagText(!missing),
+         std::to_string(p_values.size()) + " tests; " + Num(std::round(plot.share_at_level * 1000) / 10) +
+             "% had p <= " + Num(level) + " (a calibrated test: about " + Num(level * 100) + "%).",
+         Renderer::kGnuplot, QqPlotScript(plot), ""});
+  }
+}
+
+std::string Fixed3(double value) {
+  if (std::isnan(value)) return "-";
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.3f", value);
+  return buffer;
+}
+
+ReportTable CalibrationTableOf(const std::vector<CalibrationRow>& rows) {
+  ReportTable table;
+  table.id = "calibration-table";
+  table.caption = "Rejections among true-null tests at the level of their cell, with exact (Clopper-Pearson) "
+                  "95% intervals; as in calibration.csv. Rows whose interval lies entirely above the level "
+                  "are marked.";
+  table.columns = {"test", "length", "level", "all_parents_given", "tests", "rejected", "rejected_share",
+                   "rejected_share_low", "rejected_share_high"};
+  table.header = {"test", "length", "level", "all parents given", "true-null tests", "rejected", "share",
+                  "95% low", "95% high"};
+  for (const CalibrationRow& r : rows) {
+    const std::string tag = r.all_parents_given ? "yes" : "no";
+    table.rows.push_back({r.test + "|" + Num(r.length) + "|" + Num(r.level) + "|" + tag, r.AboveLevel(),
+                          {r.test, Num(r.length), Num(r.level), tag, std::to_string(r.tests),
+                           std::to_string(r.rejected), Fixed3(r.share.estimate), Fixed3(r.share.low),
+                           Fixed3(r.share.high)}});
+  }
+  return table;
+}
+
+ReportSection CalibrationSection(const StudySpec& study, const std::vector<Cell>& cells,
+                                 const ReportData& data, std::vector<std::string>& warnings) {
   ReportSection section{"calibration", "Calibration of the tests",
                         "Each plot pools the p-values of the tests whose null hypothesis holds in the truth "
                         "(b mu-separated from A given C in the latent projection), one per distinct query and "
-                        "replicate, over all learners using that test at that length. A calibrated test keeps "
-                        "its points inside the grey band around the diagonal; points below it mean too many "
-                        "rejections (false edges), points above it a conservative test (lost power).",
+                        "replicate, over all learners using that test at that length. The plots are split by "
+                        "whether the test's model can be right: 'all parents given' when C holds every parent "
+                        "of b in the projection (b itself when b has a loop) and b has no bidirected edge (a "
+                        "hidden process driving b and another process); otherwise a parent is omitted or "
+                        "hidden and the test may reject more often than its level. A calibrated test keeps its "
+                        "points inside the grey "
+                        "band around the diagonal; points below it mean too many rejections (false edges), "
+                        "points above it a conservative test (lost power).",
                         {}};
-  // (test, length) -> p-values, each distinct (cell, replicate, query) once.
-  std::map<std::pair<std::string, double>, std::vector<double>> pooled;
-  std::set<std::tuple<std::string, int, int, std::string, std::string, std::string>> seen;
-  for (const NullTestLine& n : data.null_tests) {
-    if (!seen.insert({n.test, n.cell, n.replicate, n.target, n.sources, n.given}).second) continue;
-    pooled[{n.test, n.length}].push_back(n.p_value);
-  }
-  if (pooled.empty()) {
+  const std::vector<CalibrationRow> rows = CalibrationTable(data.null_tests, cells);
+  if (rows.empty()) {
     section.intro = "No learner of this study made a statistical test whose null holds in the truth (the "
                     "oracle and penalized-fit make none), so there is nothing to calibrate.";
+    return section;
   }
-  for (const auto& [key, p_values] : pooled) {
-    QqPlot plot;
-    plot.title = key.first + ", length " + Num(key.second);
-    plot.points = metrics::UniformQq(p_values);
-    plot.level = kCalibrationLevel;
-    plot.share_at_level = metrics::ShareAtOrBelow(p_values, kCalibrationLevel);
-    section.figures.push_back({"qq-" + Slug(key.first) + "-" + Slug(Num(key.second)),
-                               "P-values under true nulls: " + key.first + " at length " + Num(key.second),
-                               std::to_string(p_values.size()) + " tests; " +
-                                   Num(std::round(plot.share_at_level * 1000) / 10) + "% had p <= " +
-                                   Num(kCalibrationLevel) + " (a calibrated test: about " +
-                                   Num(kCalibrationLevel * 100) + "%).",
-                               Renderer::kGnuplot, QqPlotScript(plot), ""});
+  section.tables.push_back(CalibrationTableOf(rows));
+  for (const CalibrationRow& r : rows) {
+    if (r.AboveLevel()) warnings.push_back("Too many rejections under true nulls: " + CalibrationWarning(r) + ".");
   }
+  AddQqFigures(study, data, section);
   return section;
 }
 
@@ -356,7 +412,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   AddTruthDrawings(truths, drawings);
   ReportSection learned{"learned", "Learned graphs", "", {}};
   AddLearnedDrawings(study, cells, truths, data, learned);
-  page.sections = {rates, cost, CalibrationSection(data), drawings, learned};
+  page.sections = {rates, cost, CalibrationSection(study, cells, data, page.warnings), drawings, learned};
   return page;
 }
 

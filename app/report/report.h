@@ -6,8 +6,14 @@
 //                            length, one line per learner, Wilson 95% bands,
 //                            targets and planned lengths from plan.csv
 //   tests-*, seconds-*       tests made and learner seconds (log scale)
-//   qq-<test>-<length>       p-values of tests whose null holds in the truth
-//                            against the uniform, with a pointwise 95% band
+//   qq-<test>-<length>-parents-given, qq-<test>-<length>-parent-missing
+//                            p-values of tests whose null holds in the truth
+//                            against the uniform, with a pointwise 95% band,
+//                            split by all_parents_given (null_tests.csv)
+// The calibration section also has the table of calibration.csv (rejection
+// share of true-null tests per test, length, level and all_parents_given,
+// exact 95% intervals), and the page opens with one warning line for every
+// row whose interval lies entirely above its level.
 //   truth-*, projection-*, class-*   each truth (up to 3), its latent
 //                            projection, its equivalence graph
 //   learned-*                each learner's graph in the first replicates of

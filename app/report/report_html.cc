@@ -30,7 +30,9 @@ constexpr char kStyle[] =
     "figure{margin:1em 1.5em 1em 0;display:inline-table;vertical-align:top}"
     "figure svg{max-width:calc(100vw - 4em);height:auto}figcaption{display:table-caption;caption-side:bottom;"
     "font-size:.9em;color:#444}"
-    ".caution{border-left:4px solid #D55E00;background:#fbf3ee;padding:.6em 1em}";
+    ".caution{border-left:4px solid #D55E00;background:#fbf3ee;padding:.6em 1em}"
+    ".warnings{border-left:4px solid #CC0000;background:#fdecec;padding:.6em 1em}"
+    ".warnings p{margin:.2em 0}tr.flagged td{background:#fdecec}";
 
 void WriteStudyTable(const ReportPage& page, std::ostream& out) {
   out << "<section id=\"study\"><h2>The study</h2>\n<table>\n";
@@ -46,9 +48,27 @@ void WriteFigure(const ReportFigure& f, std::ostream& out) {
       << ".svg)</figcaption></figure>\n";
 }
 
+void WriteTable(const ReportTable& t, std::ostream& out) {
+  out << "<table id=\"" << Escape(t.id) << "\">\n";
+  if (!t.caption.empty()) out << "<caption>" << Escape(t.caption) << "</caption>\n";
+  out << "<tr>";
+  for (const std::string& h : t.header) out << "<th>" << Escape(h) << "</th>";
+  out << "</tr>\n";
+  for (const ReportTable::Row& r : t.rows) {
+    out << "<tr data-key=\"" << Escape(r.key) << "\"" << (r.flagged ? " class=\"flagged\"" : "") << ">";
+    for (size_t i = 0; i < r.cells.size(); ++i) {
+      const std::string column = i < t.columns.size() ? t.columns[i] : "";
+      out << "<td data-col=\"" << Escape(column) << "\">" << Escape(r.cells[i]) << "</td>";
+    }
+    out << "</tr>\n";
+  }
+  out << "</table>\n";
+}
+
 void WriteSection(const ReportSection& s, std::ostream& out) {
   out << "<section id=\"" << Escape(s.id) << "\"><h2>" << Escape(s.title) << "</h2>\n";
   if (!s.intro.empty()) out << "<p>" << Escape(s.intro) << "</p>\n";
+  for (const ReportTable& t : s.tables) WriteTable(t, out);
   for (const ReportFigure& f : s.figures) WriteFigure(f, out);
   out << "</section>\n";
 }
@@ -140,7 +160,13 @@ void WriteReportHtml(const ReportPage& page, std::ostream& out) {
   out << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
       << "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n<title>"
       << Escape(page.title) << "</title>\n<style>" << kStyle << "</style>\n</head>\n<body>\n<h1>"
-      << Escape(page.title) << "</h1>\n<p class=\"caution\" id=\"caution\">" << Escape(page.caution)
+      << Escape(page.title) << "</h1>\n";
+  if (!page.warnings.empty()) {
+    out << "<div class=\"warnings\" id=\"warnings\">\n";
+    for (const std::string& w : page.warnings) out << "<p class=\"warning\">" << Escape(w) << "</p>\n";
+    out << "</div>\n";
+  }
+  out << "<p class=\"caution\" id=\"caution\">" << Escape(page.caution)
       << "</p>\n";
   WriteStudyTable(page, out);
   for (const ReportSection& s : page.sections) WriteSection(s, out);

@@ -22,11 +22,26 @@ struct ReportFigure {
   std::string svg;      // the SVG document, once rendered
 };
 
+// A table of text cells inside a section (numbers already formatted).
+struct ReportTable {
+  std::string id;
+  std::string caption;                // plain text
+  std::vector<std::string> columns;   // machine names: each cell's data-col
+  std::vector<std::string> header;    // what the header row shows
+  struct Row {
+    std::string key;                  // the row's data-key
+    bool flagged = false;             // drawn as a warning
+    std::vector<std::string> cells;
+  };
+  std::vector<Row> rows;
+};
+
 struct ReportSection {
   std::string id;
   std::string title;
   std::string intro;  // plain text paragraph, may be empty
   std::vector<ReportFigure> figures;
+  std::vector<ReportTable> tables = {};  // shown after the intro, before the figures
 };
 
 struct ReportPage {
@@ -35,6 +50,7 @@ struct ReportPage {
   std::vector<ReportSection> sections;
   std::vector<SummaryLine> summary;  // the numbers table, as read from summary.csv
   std::string caution;               // plain text
+  std::vector<std::string> warnings = {};  // plain text lines shown first, above the caution
 };
 
 // Writes the page. Text is escaped; SVG documents lose their XML prologue

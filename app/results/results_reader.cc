@@ -59,6 +59,13 @@ class Table {
     }
     return static_cast<int>(v);
   }
+  bool YesNo(size_t row, const std::string& name) const {
+    const std::string& f = Text(row, name);
+    if (f != "yes" && f != "no") {
+      throw Bad{Where(rows_[row].number, ColumnNumber(name), name) + "expected yes or no, got '" + f + "'"};
+    }
+    return f == "yes";
+  }
   metrics::Interval Interval(size_t row, const std::string& name) const {
     return {Number(row, name), Number(row, name + "_low"), Number(row, name + "_high")};
   }
@@ -156,6 +163,7 @@ void ReadNullTests(const Table& t, ReportData& d) {
     n.sources = t.Text(i, "test_sources");
     n.given = t.Text(i, "test_given");
     n.p_value = t.Number(i, "test_p_value");
+    n.all_parents_given = t.YesNo(i, "all_parents_given");
     d.null_tests.push_back(std::move(n));
   }
 }

@@ -38,6 +38,7 @@ struct NullTestLine {
   std::string learner, test, target, sources, given;
   double length = 0;
   double p_value = 0;
+  bool all_parents_given = false;  // column all_parents_given: yes / no
 };
 
 struct PlanLine {

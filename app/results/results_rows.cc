@@ -85,7 +85,7 @@ const std::string& EdgeHeader() {
 const std::string& NullTestHeader() {
   static const std::string header =
       "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
-      "test_statistic,test_df,test_p_value";
+      "test_statistic,test_df,test_p_value,all_parents_given";
   return header;
 }
 

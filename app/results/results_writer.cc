@@ -4,6 +4,7 @@
 #include <sstream>
 
 #include "app/io/atomic_file.h"
+#include "app/results/results_calibration.h"
 #include "app/io/graph_json.h"
 #include "app/study/truth_drawings.h"
 #include "app/study/truth_models.h"
@@ -255,7 +256,8 @@ Status WriteResults(const std::string& dir, const StudySpec& study, const std::s
       {dir + "/replicates.csv", ReplicatesCsv(units)},
       {dir + "/edges.csv", EdgesCsv(units)},
       {dir + "/null_tests.csv", NullTestsCsv(units)},
-      {dir + "/summary.csv", SummaryCsv(study, cells, units)}};
+      {dir + "/summary.csv", SummaryCsv(study, cells, units)},
+      {dir + "/calibration.csv", CalibrationCsv(cells, units)}};
   for (const auto& [path, content] : files) {
     Status s = WriteFileAtomically(path, content);
     if (!s.ok()) return s;

@@ -1,6 +1,6 @@
 // The final files of a study folder, built from finished units.
 //
-//   replicates.csv, edges.csv, summary.csv, null_tests.csv
+//   replicates.csv, edges.csv, summary.csv, null_tests.csv, calibration.csv
 //                     (columns: results/README.md)
 //   study.json        the resolved study: version, seed, truths and their
 //                     classes, process, cells with their stream keys, learners

@@ -13,7 +13,7 @@
 namespace locind::app {
 namespace {
 
-constexpr char kHeaderPrefix[] = "locind finished units v2 ";
+constexpr char kHeaderPrefix[] = "locind finished units v3 ";
 
 std::vector<std::string> SplitTabs(const std::string& line) {
   std::vector<std::string> out;

@@ -215,7 +215,9 @@ void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_clas
 
 // At most this many null-holding tests per replicate and learner go to
 // null_tests.csv (evenly spaced over the learner's log), so a method that
-// makes 10^5 tests does not swamp the file.
+// makes 10^5 tests does not swamp the file. Each line ends with
+// all_parents_given (metrics::AllParentsGiven on the truth's projection):
+// yes when the test's model can be right.
 constexpr size_t kNullTestsPerLearner = 200;
 
 void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_class,
@@ -228,7 +230,8 @@ void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_
     o << row.cell << "," << row.replicate << "," << row.truth << "," << row.learner << "," << row.test
       << "," << Num(row.length) << "," << names[t.target] << "," << NameList(t.sources, names) << ","
       << NameList(t.given, names) << "," << Num(t.statistic) << "," << Num(t.df) << ","
-      << Num(t.p_value);
+      << Num(t.p_value) << ","
+      << (metrics::AllParentsGiven(truth_class.projected, t.target, t.given) ? "yes" : "no");
     lines.push_back(o.str());
   }
 }

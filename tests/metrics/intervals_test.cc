@@ -63,5 +63,44 @@ TEST_CASE("bootstrap interval of a mean") {
   CHECK(repeat.high == wide.high);
 }
 
+TEST_CASE("Clopper-Pearson interval matches SciPy's Beta quantiles") {
+  // Expected values: SciPy 1.10.1 (Debian 12 /usr/bin/python3),
+  // lo = scipy.stats.beta.ppf(a / 2, x, n - x + 1) and
+  // hi = scipy.stats.beta.ppf(1 - a / 2, x + 1, n - x), a = 1 - confidence,
+  // with lo = 0 at x = 0 and hi = 1 at x = n (Clopper & Pearson 1934).
+  struct Case {
+    int64_t x, n;
+    double confidence, low, high;
+  };
+  const Case cases[] = {
+      {0, 20, 0.95, 0.0, 0.1684334709830853},
+      {1, 20, 0.95, 0.0012650894979498038, 0.24873276277202777},
+      {7, 50, 0.95, 0.0581917003403721, 0.2673960024970084},
+      {50, 50, 0.95, 0.9288782635358024, 1.0},
+      {3, 200, 0.95, 0.003104107621553509, 0.0432082819177126},
+      {12, 80, 0.95, 0.07998156130971382, 0.2473641115928976},
+      {1, 1, 0.95, 0.025, 1.0},
+      {4, 30, 0.90, 0.046854826914600675, 0.2796151658934821},
+  };
+  for (const Case& c : cases) {
+    const Interval i = ClopperPearsonInterval(c.x, c.n, c.confidence);
+    CAPTURE(c.x);
+    CAPTURE(c.n);
+    CHECK(i.estimate == doctest::Approx(static_cast<double>(c.x) / c.n).epsilon(1e-15));
+    CHECK(i.low == doctest::Approx(c.low).epsilon(1e-10));
+    CHECK(i.high == doctest::Approx(c.high).epsilon(1e-10));
+  }
+  // The ends are exact, and no trials give NaN.
+  CHECK(ClopperPearsonInterval(0, 20).low == 0.0);
+  CHECK(ClopperPearsonInterval(50, 50).high == 1.0);
+  CHECK(std::isnan(ClopperPearsonInterval(0, 0).estimate));
+  // The exact interval contains the Wilson interval's estimate and is wider
+  // at small counts (it is conservative; common practice, no source).
+  const Interval exact = ClopperPearsonInterval(2, 40);
+  const Interval wilson = WilsonInterval(2, 40);
+  CHECK(exact.low < wilson.low);
+  CHECK(exact.high > wilson.high);
+}
+
 }  // namespace
 }  // namespace locind::metrics

@@ -5,6 +5,7 @@
 
 #include <cmath>
 
+#include "graph/latent_projection.h"
 #include "tests/graph/graph_fixtures.h"
 
 namespace locind::metrics {
@@ -84,6 +85,93 @@ TEST_CASE("QQ points and the Beta band of uniform order statistics") {
 TEST_CASE("share of p-values at or below the level") {
   CHECK(ShareAtOrBelow({0.01, 0.05, 0.2, 0.9}, 0.05) == 0.5);
   CHECK(std::isnan(ShareAtOrBelow({}, 0.05)));
+}
+
+// The truth's latent projection onto its observed nodes (the graph the tag
+// is computed on in a run).
+graph::Dmg Projected(const graph::Dmg& truth, const std::vector<int>& hidden) {
+  return graph::LatentProjection(truth, hidden).value();
+}
+
+bool NullHolds(const graph::Dmg& projected, int target, std::vector<int> sources, std::vector<int> given) {
+  return NullHoldingTests(projected, {Record(target, std::move(sources), std::move(given), 0.5)}, 2).size() == 1;
+}
+
+TEST_CASE("all parents given: a chain with a hidden mediator") {
+  // Truth a -> h -> b with h hidden, c apart, no loops. The projection
+  // (observed a, b, c = 0, 1, 2) has a -> b: the directed walk a -> h -> b
+  // has only hidden inner nodes (Mogensen & Hansen 2020, Sec. 3). It also
+  // has the loop b -> b: the walk b <- h -> b has arrowheads at both ends,
+  // no collider and only h inside, a bidirected loop that the projection
+  // keeps as b -> b (graph/latent_projection.h). So b's own past is a
+  // parent too: the hidden h carries b's past effect on itself.
+  graph::Dmg truth({"a", "h", "b", "c"});
+  truth.AddDirected(0, 1);
+  truth.AddDirected(1, 2);
+  const graph::Dmg p = Projected(truth, {1});
+  REQUIRE(p.HasDirected(0, 1));
+  REQUIRE(p.Parents(1) == std::vector<int>{0, 1});
+  REQUIRE(p.Siblings(1).empty());
+  // b independent of c given {b}: the null holds (c is apart), but b's
+  // intensity depends on a's past through the hidden h and a is not given.
+  CHECK(NullHolds(p, 1, {2}, {1}));
+  CHECK_FALSE(AllParentsGiven(p, 1, {1}));
+  // Given {a, b}: both projected parents are there and b has no bidirected
+  // edge, so the parent set of the test's model is right.
+  CHECK(NullHolds(p, 1, {2}, {0, 1}));
+  CHECK(AllParentsGiven(p, 1, {0, 1}));
+  // Given {a} only: b's own past (the loop through h) is left out.
+  CHECK_FALSE(AllParentsGiven(p, 1, {0}));
+  // a has no parents at all: any C will do, even the empty set.
+  CHECK(AllParentsGiven(p, 0, {}));
+}
+
+TEST_CASE("all parents given: an omitted parent and a fully given parent set") {
+  // All observed: a -> b, c -> b, b -> b, d apart.
+  graph::Dmg g({"a", "b", "c", "d"});
+  g.AddDirected(0, 1);
+  g.AddDirected(2, 1);
+  g.AddDirected(1, 1);
+  // b independent of d given {a, b}: true null, but the parent c is omitted.
+  CHECK(NullHolds(g, 1, {3}, {0, 1}));
+  CHECK_FALSE(AllParentsGiven(g, 1, {0, 1}));
+  // Given {a, b, c}: every parent of b (a, c and b itself through the loop).
+  CHECK(NullHolds(g, 1, {3}, {0, 1, 2}));
+  CHECK(AllParentsGiven(g, 1, {0, 1, 2}));
+  // Given {a, c} without b: the loop b -> b makes b its own parent, and the
+  // tests model b's own past only when b is in C, so the model is wrong.
+  CHECK_FALSE(AllParentsGiven(g, 1, {0, 2}));
+}
+
+TEST_CASE("all parents given: a hidden common driver makes every C wrong") {
+  // Truth h -> b, h -> c with h hidden, a apart. The projection (a, b, c =
+  // 0, 1, 2) has b <-> c: the walk b <- h -> c has arrowheads at both ends,
+  // no collider and the hidden h inside.
+  graph::Dmg truth({"a", "b", "c", "h"});
+  truth.AddDirected(3, 1);
+  truth.AddDirected(3, 2);
+  const graph::Dmg p = Projected(truth, {3});
+  REQUIRE(p.HasBidirected(1, 2));
+  // b independent of a given {b, c}: true null, yet b's hidden parent h is in
+  // no observed history, even with every observed process given.
+  CHECK(NullHolds(p, 1, {0}, {1, 2}));
+  CHECK_FALSE(AllParentsGiven(p, 1, {1, 2}));
+  CHECK_FALSE(AllParentsGiven(p, 1, {0, 1, 2}));
+  // a is untouched by h: its (empty) parent set is given.
+  CHECK(AllParentsGiven(p, 0, {0}));
+}
+
+TEST_CASE("all parents given: a hidden driver of one process alone is its own loop") {
+  // Truth h -> b with h hidden: the walk b <- h -> b would be a bidirected
+  // loop, which the projection keeps as the directed loop b -> b (same
+  // separations; graph/latent_projection.h). So it counts as b's own past.
+  graph::Dmg truth({"a", "b", "h"});
+  truth.AddDirected(2, 1);
+  const graph::Dmg p = Projected(truth, {2});
+  REQUIRE(p.HasDirected(1, 1));
+  REQUIRE(p.Siblings(1).empty());
+  CHECK(AllParentsGiven(p, 1, {1}));
+  CHECK_FALSE(AllParentsGiven(p, 1, {0}));
 }
 
 }  // namespace

@@ -73,6 +73,7 @@ TEST_CASE("text output lists the query and the result, one key per line") {
   CHECK(r.code == kExitOk);
   CHECK(r.err.empty());
   const std::regex layout(
+      "query: target b, sources \\{a\\}, given \\{b\\} \\(the target's own past is included\\)\n"
       "target: b\nsources: a\ngiven: b\ntest: hawkes-lr\nstatistic: [0-9.e+-]+\ndf: 3\n"
       "p_value: [0-9.e+-]+\nstatus: ok\n");
   CHECK(std::regex_match(r.out, layout));
@@ -89,7 +90,8 @@ TEST_CASE("JSON output for paths, with the kind read from the header") {
   const Outcome r = Run({f.paths, "--target", "b", "--source", "a", "--given", "b", "--json"});
   CHECK(r.code == kExitOk);
   const std::regex layout(
-      "\\{\"target\": \"b\", \"sources\": \\[\"a\"\\], \"given\": \\[\"b\"\\], \"test\": "
+      "\\{\"query\": \"target b, sources \\{a\\}, given \\{b\\} \\(the target's own past is included\\)\", "
+      "\"target_past_given\": true, \"target\": \"b\", \"sources\": \\[\"a\"\\], \"given\": \\[\"b\"\\], \"test\": "
       "\"drift-f\", \"statistic\": [0-9.e+-]+, \"df\": 3, \"p_value\": [0-9.e+-]+, \"status\": "
       "\"ok\", \"reason\": \"\"\\}\n");
   CHECK(std::regex_match(r.out, layout));
@@ -109,6 +111,30 @@ TEST_CASE("test variants, rates and kind are options") {
   CHECK(r.code == kExitOk);
   CHECK(r.out.find("test: drift-robust-wald\n") != std::string::npos);
   CHECK(r.out.find("df: 4\n") != std::string::npos);
+}
+
+TEST_CASE("a query without the target's own past is said so, with a warning on stderr") {
+  Files f;
+  const std::string warning =
+      "locind test: warning: --given does not include the target b, so the test leaves out b's own "
+      "history (almost never intended; add b to --given)\n";
+  // No --given at all: C is empty.
+  Outcome r = Run({f.events, "--target", "b", "--source", "a"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.err == warning);
+  CHECK(r.out.rfind("query: target b, sources {a}, given {} (the target's own past is NOT included)\n", 0) == 0);
+  CHECK(r.out.find("given: \n") != std::string::npos);
+  // The same in JSON: the flag is false, and the warning still goes to stderr.
+  r = Run({f.paths, "--target", "a", "--source", "b", "--given", "", "--json"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.err == "locind test: warning: --given does not include the target a, so the test leaves out a's own "
+                 "history (almost never intended; add a to --given)\n");
+  CHECK(r.out.rfind("{\"query\": \"target a, sources {b}, given {} (the target's own past is NOT included)\", "
+                    "\"target_past_given\": false, ", 0) == 0);
+  // With the target in --given there is no warning.
+  r = Run({f.paths, "--target", "a", "--source", "b", "--given", "a", "--json"});
+  CHECK(r.err.empty());
+  CHECK(r.out.find("\"target_past_given\": true") != std::string::npos);
 }
 
 TEST_CASE("not estimable results are printed with their reason") {

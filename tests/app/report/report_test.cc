@@ -1,5 +1,7 @@
 // The report end to end: a small study is run, its report written, and
 //  - every number of the report's table equals summary.csv (read apart),
+//  - the calibration table equals calibration.csv, and a folder whose
+//    true-null p-values are made small gets a warning line per group,
 //  - every figure is an SVG file and sits inline in the page,
 //  - headless Chromium loads the page with no errors and sees every figure
 //    with a non-empty size (a screenshot is kept as a test artefact in
@@ -11,7 +13,10 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <algorithm>
+#include <cstdio>
 #include <map>
+#include <set>
 #include <sstream>
 
 #include <unistd.h>
@@ -77,6 +82,34 @@ std::vector<std::string> Split(const std::string& line) {
   return out;
 }
 
+// The rows of one of our CSV files as column -> value.
+std::vector<std::map<std::string, std::string>> CsvRows(const fs::path& path) {
+  std::istringstream csv(ReadAll(path));
+  std::string line;
+  std::getline(csv, line);
+  const std::vector<std::string> header = Split(line);
+  std::vector<std::map<std::string, std::string>> rows;
+  while (std::getline(csv, line)) {
+    const std::vector<std::string> f = Split(line);
+    REQUIRE(f.size() == header.size());
+    rows.emplace_back();
+    for (size_t i = 0; i < header.size(); ++i) rows.back()[header[i]] = f[i];
+  }
+  return rows;
+}
+
+// The text of the cell `column` in the first table row whose data-key is `key`.
+std::string TableCell(const std::string& html, const std::string& key, const std::string& column) {
+  const size_t at = html.find("data-key=\"" + key + "\"");
+  if (at == std::string::npos) return "(no row " + key + ")";
+  const std::string row = html.substr(at, html.find("</tr>", at) - at);
+  const std::string mark = "data-col=\"" + column + "\">";
+  const size_t start = row.find(mark);
+  if (start == std::string::npos) return "(no column " + column + ")";
+  const size_t from = start + mark.size();
+  return row.substr(from, row.find('<', from) - from);
+}
+
 TEST_CASE("every number in the report's table equals summary.csv") {
   const std::string html = ReadAll(StudyFolder() / "report.html");
   std::istringstream csv(ReadAll(StudyFolder() / "summary.csv"));
@@ -129,9 +162,20 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
     CHECK_MESSAGE(html.find("<figure id=\"" + id + "\">") != std::string::npos, id);
     ++figures;
   }
-  // power, false-edges, tests, seconds; QQ for hawkes-lr at 150 and 600;
-  // truth, projection, class; 3 learners x 2 replicates learned.
-  CHECK(figures == 4 + 2 + 3 + 6);
+  // power, false-edges, tests, seconds; one QQ plot per row of
+  // calibration.csv (one level: test, length and tag); truth, projection,
+  // class; 3 learners x 2 replicates learned.
+  const std::vector<std::map<std::string, std::string>> groups = CsvRows(StudyFolder() / "calibration.csv");
+  // hawkes-lr at 150 and 600; target a (parents: a only) gives "yes" rows,
+  // targets b and c (b <-> c through h) only "no" rows.
+  CHECK(groups.size() >= 2);
+  CHECK(groups.size() <= 4);
+  for (const auto& g : groups) {
+    const std::string id = "qq-hawkes-lr-" + g.at("length") +
+                           (g.at("all_parents_given") == "yes" ? "-parents-given" : "-parent-missing");
+    CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (id + ".svg")), id);
+  }
+  CHECK(figures == 4 + static_cast<int>(groups.size()) + 3 + 6);
   CHECK(std::count(html.begin(), html.end(), '\n') > 100);
   // Self-contained: nothing to fetch (only XML namespace names mention http).
   for (const char* link : {"src=\"http", "href=\"http", "src='http", "href='http"}) {
@@ -139,6 +183,94 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   }
   CHECK(html.find("<script") == std::string::npos);
   CHECK(html.find("statistical hypotheses") != std::string::npos);  // the caution
+}
+
+TEST_CASE("the calibration table equals calibration.csv, with no warning unless a row is above the level") {
+  const std::string html = ReadAll(StudyFolder() / "report.html");
+  REQUIRE(html.find("<table id=\"calibration-table\">") != std::string::npos);
+  int warned = 0;
+  for (const auto& g : CsvRows(StudyFolder() / "calibration.csv")) {
+    const std::string key = g.at("test") + "|" + g.at("length") + "|" + g.at("level") + "|" + g.at("all_parents_given");
+    CHECK(g.at("test") == "hawkes-lr");
+    CHECK(g.at("level") == "0.05");
+    CHECK(TableCell(html, key, "tests") == g.at("tests"));
+    CHECK(TableCell(html, key, "rejected") == g.at("rejected"));
+    CHECK(std::stoi(g.at("tests")) > 0);
+    for (const char* column : {"rejected_share", "rejected_share_low", "rejected_share_high"}) {
+      // The page shows three decimals.
+      CHECK_MESSAGE(std::abs(std::stod(TableCell(html, key, column)) - std::stod(g.at(column))) <= 5e-4 + 1e-12,
+                    column);
+    }
+    // above_level: the exact interval lies above the level.
+    CHECK(g.at("above_level") == (std::stod(g.at("rejected_share_low")) > 0.05 ? "yes" : "no"));
+    if (g.at("above_level") == "yes") ++warned;
+  }
+  size_t count = 0;
+  for (size_t at = html.find("<p class=\"warning\">"); at != std::string::npos;
+       at = html.find("<p class=\"warning\">", at + 1)) {
+    ++count;
+  }
+  CHECK(count == static_cast<size_t>(warned));
+}
+
+TEST_CASE("true-null tests that reject too often get a warning at the top of the report") {
+  // A copy of the run whose true-null p-values at length 600 are all 0.001:
+  // every group there rejects n of n tests.
+  const fs::path dir = StudyFolder().parent_path() / "too-many-rejections";
+  fs::remove_all(dir);
+  fs::copy(StudyFolder(), dir, fs::copy_options::recursive);
+  std::istringstream in(ReadAll(dir / "null_tests.csv"));
+  std::string line;
+  std::getline(in, line);
+  const std::vector<std::string> header = Split(line);
+  const size_t p_column = std::find(header.begin(), header.end(), "test_p_value") - header.begin();
+  REQUIRE(p_column < header.size());
+  std::string doctored = line + "\n";
+  // Distinct queries per tag at length 600 (a query of one data set once).
+  std::map<std::string, std::set<std::string>> distinct;
+  while (std::getline(in, line)) {
+    std::vector<std::string> f = Split(line);
+    std::map<std::string, std::string> v;
+    for (size_t i = 0; i < header.size(); ++i) v[header[i]] = f[i];
+    if (v["length"] == "600") {
+      f[p_column] = "0.001";
+      distinct[v["all_parents_given"]].insert(v["cell"] + "/" + v["replicate"] + "/" + v["test_target"] + "/" +
+                                              v["test_sources"] + "/" + v["test_given"]);
+    }
+    std::string joined;
+    for (size_t i = 0; i < f.size(); ++i) joined += (i ? "," : "") + f[i];
+    doctored += joined + "\n";
+  }
+  std::ofstream(dir / "null_tests.csv") << doctored;
+  REQUIRE_FALSE(distinct.empty());
+  const testing::Outcome r = testing::RunHandler(RunReportCommand, {dir.string()});
+  REQUIRE_MESSAGE(r.code == kExitOk, r.err);
+  const std::string html = ReadAll(dir / "report.html");
+  // The warnings come first: before the caution.
+  const size_t warnings = html.find("<div class=\"warnings\" id=\"warnings\">");
+  REQUIRE(warnings != std::string::npos);
+  CHECK(warnings < html.find("id=\"caution\""));
+  for (const auto& [tag, queries] : distinct) {
+    const size_t n = queries.size();
+    // n of n rejected: the Clopper-Pearson lower bound is (0.025)^(1/n),
+    // the upper bound 1 (Clopper & Pearson 1934; the Beta(n, 1) quantile).
+    char low[32];
+    std::snprintf(low, sizeof low, "%.3f", std::pow(0.025, 1.0 / static_cast<double>(n)));
+    const std::string expected = "<p class=\"warning\">Too many rejections under true nulls: hawkes-lr at length "
+                                 "600, level 0.05, all parents given: " + tag + ": " + std::to_string(n) + " of " +
+                                 std::to_string(n) + " true-null tests rejected (share 1.000, exact 95% interval " +
+                                 low + " to 1.000).</p>";
+    const bool flagged = html.find("<tr data-key=\"hawkes-lr|600|0.05|" + tag + "\" class=\"flagged\">") !=
+                         std::string::npos;
+    if (n < 2) {  // 1 of 1: the interval [0.025, 1] reaches below the level
+      CHECK(html.find(expected) == std::string::npos);
+      CHECK_FALSE(flagged);
+      continue;
+    }
+    CHECK_MESSAGE(html.find(expected) != std::string::npos, expected);
+    CHECK(flagged);  // and the row is marked in the table
+  }
+  fs::remove_all(dir);
 }
 
 TEST_CASE("a folder that is not a finished run is refused with exit code 2 and no report") {

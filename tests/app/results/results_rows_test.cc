@@ -35,7 +35,7 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision");
   CHECK(NullTestHeader() ==
         "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
-        "test_statistic,test_df,test_p_value");
+        "test_statistic,test_df,test_p_value,all_parents_given");
   CHECK(SummaryHeader() ==
         "cell,length,level,hidden_count,stationarity_target,learner,replicates,failed,"
         "power,power_low,power_high,false_edge_rate,false_edge_rate_low,false_edge_rate_high,"

@@ -110,16 +110,16 @@ TEST_CASE("mpirun -np 2 (dispatch, static) and -np 3 --threads 2 give the files 
   CHECK(Count(log, "2 ranks x 1 thread, dispatch; 0 of 8 units already done") == 1);
   CHECK(Count(log, "results in " + s.Path("dispatch")) == 1);  // rank 0 alone reports
   // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
-  CHECK(CompareFolders(s.dir / "one", s.dir / "dispatch") == 9);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "dispatch") == 10);
   CHECK(CountLines(s.dir / "dispatch" / Journal::FileName()) == 1 + 8);
 
   REQUIRE(Mpirun(2, {study, "--out", s.Path("static"), "--mpi-assign", "static"}, s, &log) == kExitOk);
   CHECK(Count(log, "2 ranks x 1 thread, static") == 1);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "static") == 9);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "static") == 10);
 
   REQUIRE(Mpirun(3, {study, "--out", s.Path("three"), "--threads", "2"}, s, &log) == kExitOk);
   CHECK(Count(log, "3 ranks x 2 threads, dispatch") == 1);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "three") == 9);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "three") == 10);
 }
 
 TEST_CASE("a rank killed with SIGKILL: the journal keeps what was finished, a rerun completes it") {
@@ -147,7 +147,7 @@ TEST_CASE("a rank killed with SIGKILL: the journal keeps what was finished, a re
   REQUIRE(Mpirun(2, {study, "--out", s.Path("killed")}, s, &log) == kExitOk);
   CHECK(Count(log, " of 20 units already done") == 1);
   CHECK(Count(log, "; 0 of 20 units already done") == 0);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") == 9);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") == 10);
   CHECK(CountLines(journal) == 1 + 20);
 }
 

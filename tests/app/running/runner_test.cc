@@ -35,7 +35,7 @@ TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2
   CHECK(text.find("results in " + s.Path("one")) != std::string::npos);
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("two")}) == kExitOk);
   // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
-  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 9);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 10);
 
   REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
   REQUIRE(Run({study, "--part", "1/2", "--out", s.Path("p1"), "--threads", "2"}) == kExitOk);
@@ -44,7 +44,7 @@ TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2
   CHECK(CountLines(s.dir / "p1" / "replicates.csv") == 1 + 12);
   std::ostringstream out, err;
   REQUIRE(RunMergeCommand({s.Path("p2"), s.Path("p1"), "--out", s.Path("merged")}, out, err) == kExitOk);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 9);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 10);
   CHECK_FALSE(fs::exists(s.dir / "merged" / "part.txt"));
 
   {  // merge refuses an incomplete set of shares
@@ -93,13 +93,13 @@ TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterr
   std::string text;
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("killed")}, &text) == kExitOk);
   CHECK(text.find(std::to_string(committed) + " of 20 units already done") != std::string::npos);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 10);
   CHECK(CountLines(s.dir / "killed" / Journal::FileName()) == 21);
 
   {  // running the finished study again only rewrites the same files
     REQUIRE(Run({study, "--out", s.Path("killed")}, &text) == kExitOk);
     CHECK(text.find("20 of 20 units already done") != std::string::npos);
-    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 9);
+    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 10);
   }
 }
 
@@ -120,7 +120,7 @@ TEST_CASE("--part shares merged after one was killed and resumed: the files of o
   std::ostringstream out, err;
   REQUIRE(RunMergeCommand({s.Path("p1"), s.Path("p2"), "--out", s.Path("merged")}, out, err) ==
           kExitOk);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 9);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 10);
 }
 
 TEST_CASE("a second run into a folder in use is refused, and so is another study's folder") {
