@@ -16,10 +16,15 @@ namespace locind::learners {
 double SeparationMargin(double level) { return std::max(level, 0.2); }
 double StrongDependence(double level) { return level / 10; }
 
-bool Refutes(double q, double p_e, double level) {
-  if (std::isnan(q) || q <= SeparationMargin(level)) return false;  // (M)
-  // (S). Under the oracle q = 1 and p_e = 0, so 1 - q <= p_e holds.
-  return std::isnan(p_e) || p_e > StrongDependence(level) || 1 - q <= p_e;
+bool ExactAnswer(const TestResult& r) {
+  return r.status == TestStatus::kOk && r.df == 0 && (r.p_value == 0 || r.p_value == 1);
+}
+
+bool Refutes(double q, bool exact, double p_e, double level) {
+  if (std::isnan(q) || q <= level) return false;  // not a separation at all
+  if (exact) return true;  // no sampling error: the rule of maximal-search
+  if (q <= SeparationMargin(level)) return false;  // (M)
+  return std::isnan(p_e) || p_e > StrongDependence(level);          // (S)
 }
 
 namespace {
@@ -74,13 +79,15 @@ BitGraph CompleteGraph(int n) {
 }
 
 // A remembered separation: `target` separated from `source` given `given`,
-// with its p-value (1 when implied by the current graph).
+// with its p-value (1 when implied by the current graph); exact when implied
+// or answered without sampling error.
 struct Separation {
   int source;
   int target;
   Mask given;
   double p;
   bool implied;
+  bool exact;
 };
 
 using EdgeKey = std::tuple<int, int, int>;
@@ -174,14 +181,15 @@ std::vector<Separation> SearchLevel(State& s, const BitGraph& snapshot, int a, i
     const Mask c = base | d;
     if (ReachesPair(snapshot, a, b, d)) {
       if (graph::MuSeparated(snapshot, a, b, c)) {
-        found.push_back({a, b, c, 1.0, true});
+        found.push_back({a, b, c, 1.0, true, true});
       } else {
         s.runner.Dependent(a, b, c);
-        const double p = Evidence(*s.tap.Find(a, b, c));
+        const TestResult& r = *s.tap.Find(a, b, c);
+        const double p = Evidence(r);
         double& own = s.own[a * s.n + b];
         own = std::isnan(p) || std::isnan(own) ? kNaN : std::max(own, p);
         s.own_sets[a * s.n + b].push_back(c);
-        if (p > s.level) found.push_back({a, b, c, p, false});
+        if (p > s.level) found.push_back({a, b, c, p, false, ExactAnswer(r)});
       }
     }
     int i = k - 1;
@@ -230,7 +238,7 @@ void SeparationPhase(State& s) {
       // The record names the separation with the largest p (implied ones first).
       const Separation* best = &found.front();
       for (const Separation& z : found) {
-        if (z.implied || Refutes(z.p, kNaN, s.level)) s.separations.push_back(z);
+        if (Refutes(z.p, z.exact, kNaN, s.level)) s.separations.push_back(z);
         if (!best->implied && (z.implied || z.p > best->p)) best = &z;
       }
       RecordSeparated(s, a, b, *best);
@@ -311,7 +319,7 @@ void PruningPhase(State& s) {
                                                        : RuleAgainstBidirected(s, z, e.from, e.to);
       if (rule == nullptr) continue;
       EdgeDecision& d = s.decisions[KeyOf(e)];
-      if (!z.implied && !Refutes(z.p, p_e, s.level)) {
+      if (!Refutes(z.p, z.exact, p_e, s.level)) {
         // (S) sets it aside; kept for the record if nothing else removes the edge.
         if (d.rule.empty()) {
           d.rule = "own evidence";
@@ -383,20 +391,21 @@ class EdgeAnswers {
     Mask open = possible;
     for (int d : MaskToList(possible & ~Implied(c, given, possible))) {
       s_.runner.Dependent(c, d, given);
-      const double q = Evidence(*s_.tap.Find(c, d, given));
-      if (Refutes(q, p_e_, s_.level)) {
+      const TestResult& r = *s_.tap.Find(c, d, given);
+      const double q = Evidence(r);
+      if (Refutes(q, ExactAnswer(r), p_e_, s_.level)) {
         open &= ~Bit(d);
-        refuting_ = {c, d, given, q, false};
+        refuting_ = {c, d, given, q, false, ExactAnswer(r)};
       } else if (q > s_.level && set_aside_.given == kNone) {
-        set_aside_ = {c, d, given, q, false};
+        set_aside_ = {c, d, given, q, false, false};
       }
     }
     return open;
   }
 
   static constexpr Mask kNone = ~Mask{0};
-  Separation refuting_{0, 0, kNone, 0, false};
-  Separation set_aside_{0, 0, kNone, 0, false};
+  Separation refuting_{0, 0, kNone, 0, false, false};
+  Separation set_aside_{0, 0, kNone, 0, false, false};
 
  private:
   Mask Implied(int c, Mask given, Mask possible) const {

@@ -32,19 +32,29 @@ TEST_CASE("the rule: thresholds and the oracle's answers") {
   CHECK(SeparationMargin(0.05) == 0.2);
   CHECK(SeparationMargin(0.3) == 0.3);
   CHECK(StrongDependence(0.05) == doctest::Approx(0.005));
-  // Oracle: a separation (p = 1) refutes an edge whose own tests gave p = 0.
-  CHECK(Refutes(1.0, 0.0, 0.05));
+  // Oracle: an exact separation refutes an edge whose own tests gave p = 0.
+  TestResult oracle_separated;
+  oracle_separated.p_value = 1;
+  oracle_separated.df = 0;
+  CHECK(ExactAnswer(oracle_separated));
+  CHECK(Refutes(1.0, true, 0.0, 0.05));
+  CHECK_FALSE(Refutes(0.0, true, 0.0, 0.05));  // an exact connection is no separation
+  // A likelihood-ratio statistic of 0 gives p = 1 too, but with df > 0.
+  TestResult boundary = oracle_separated;
+  boundary.df = 3;
+  CHECK_FALSE(ExactAnswer(boundary));
+  CHECK_FALSE(Refutes(1.0, false, 1e-30, 0.05));
   // (M): a separation without margin refutes nothing.
-  CHECK_FALSE(Refutes(0.15, 0.03, 0.05));
-  CHECK(Refutes(0.25, 0.03, 0.05));  // weak own evidence (0.03 > 0.005)
-  // (S): strong own evidence needs a separation at least as far from 1.
-  CHECK_FALSE(Refutes(0.993, 1e-104, 0.05));
-  CHECK(Refutes(0.9995, 0.001, 0.05));
-  CHECK_FALSE(Refutes(0.998, 0.001, 0.05));
+  CHECK_FALSE(Refutes(0.15, false, 0.03, 0.05));
+  CHECK(Refutes(0.25, false, 0.03, 0.05));  // weak own evidence (0.03 > 0.005)
+  // (S): strong own evidence (p_e <= 0.005) is not refuted by a tested separation.
+  CHECK_FALSE(Refutes(0.993, false, 1e-104, 0.05));
+  CHECK_FALSE(Refutes(0.999, false, 0.005, 0.05));
+  CHECK(Refutes(0.999, false, 0.0051, 0.05));
   // Not estimable: never a separation; as own evidence it is weak.
   const double nan = std::numeric_limits<double>::quiet_NaN();
-  CHECK_FALSE(Refutes(nan, 0.0, 0.05));
-  CHECK(Refutes(0.5, nan, 0.05));
+  CHECK_FALSE(Refutes(nan, false, 0.0, 0.05));
+  CHECK(Refutes(0.5, false, nan, 0.05));
 }
 
 TEST_CASE("exact on every DMG with 3 nodes (all 4,096)") {
@@ -87,9 +97,8 @@ TEST_CASE("exact on 2,000 random graphs with 4 to 7 observed nodes, hidden nodes
   CHECK(with_hidden > 1000);
 }
 
-// The oracle of a graph with p-values as a statistical test might give them:
-// 1e-30 for a connection, 1 (a likelihood-ratio statistic of 0) for a
-// separation, and one answer replaced by a scripted p-value.
+// The oracle of a graph with one answer replaced by a statistical one: the
+// scripted p-value with one degree of freedom (so not exact).
 class ScriptedTest : public IndependenceTest {
  public:
   ScriptedTest(OracleTest oracle, TestQuery changed, double p)
@@ -99,9 +108,8 @@ class ScriptedTest : public IndependenceTest {
   std::string kind() const override { return "scripted"; }
   TestResult Run(const TestQuery& q) override {
     TestResult r = oracle_.Run(q);
-    r.df = 1;
-    r.p_value = r.p_value == 0 ? 1e-30 : 1.0;
     if (q.target == changed_.target && q.sources == changed_.sources && q.given == changed_.given) {
+      r.df = 1;
       r.p_value = p_;
     }
     return r;
@@ -122,8 +130,9 @@ TEST_CASE("a strongly supported edge survives one missed composite dependence") 
   // demo run). maximal-search takes that one answer as a separation, and
   // (D2) for pressure_alert -> flow_alert (with d = pump_alarm, C =
   // {pump_alarm}: pump_alarm is connected from pressure_alert, not from
-  // flow_alert) removes the edge although its own tests say p = 1e-30.
-  // margin-search keeps it: 1 - 0.993 > 1e-30, rule (S).
+  // flow_alert) removes the edge although its own tests say p = 0.
+  // margin-search keeps it: its own evidence is strong and the separation is
+  // a tested one, rule (S). Every other answer is the oracle's.
   const std::vector<std::string> names = {"pump_alarm",   "pressure_alert", "flow_alert", "valve_alarm",
                                           "operator_log", "power_dip",      "maintenance"};
   graph::Dmg g(names);
