@@ -134,12 +134,12 @@ TestRecord Witness(const State& s, int c, int d, Mask given) {
   return w;
 }
 
-// The edge's own evidence p_e (see the header).
+// The edge's own evidence p_e (see the header). A test of b from a speaks
+// for an edge into b from a's side, which a -> b explains as well as a <-> b;
+// nothing in the pair's own tests speaks for the hidden driver that a <-> b
+// claims, so a bidirected edge has no own evidence (p_e = 1).
 double OwnEvidence(const State& s, const Edge& e) {
-  const double forward = s.own[e.from * s.n + e.to];
-  if (e.kind == EdgeKind::kDirected) return forward;
-  const double backward = s.own[e.to * s.n + e.from];
-  return std::isnan(forward) || std::isnan(backward) ? kNaN : std::max(forward, backward);
+  return e.kind == EdgeKind::kDirected ? s.own[e.from * s.n + e.to] : 1.0;
 }
 
 // ---- Phase (i): separation, level by level on a snapshot of the graph.
