@@ -59,7 +59,7 @@
 // Cost in tests: at least maximal-search's, usually more: every conditioning
 // set of the deciding level is tried (no stop at the first separation), and
 // the final phase infers fewer answers, since accepted edges do not feed the
-// decisions of the other edges. The demo's numbers are in DEVELOPERS.md.
+// decisions of the other edges. Measurements: docs/margin_search.md.
 //
 // Stats: LearnResult::decisions has one record per candidate edge; an edge
 // kept although an ordinary separation (p > level) contradicted it has rule
