@@ -1,6 +1,7 @@
 #include "learners/methods/learner_registry.h"
 
 #include "learners/methods/exhaustive_learner.h"
+#include "learners/methods/margin_search.h"
 #include "learners/methods/maximal_search.h"
 #include "learners/methods/pairwise_learner.h"
 #include "learners/methods/penalized_fit_learner.h"
@@ -31,6 +32,9 @@ const std::vector<MethodEntry>& LearningMethods() {
       {"maximal-search",
        "search for the maximal graph and its solid/dashed marks (exact under the oracle)", true,
        MakePlain<MaximalSearch>},
+      {"margin-search",
+       "maximal search that uses each answer by its strength, order-independent (exact under the oracle)",
+       true, MakePlain<MarginSearch>},
       {"exhaustive", "every edge from the full list of separations (reference; small graphs)",
        true, MakePlain<ExhaustiveLearner>},
       {"screen", "separation search with conditioning sets of at most k processes besides b",

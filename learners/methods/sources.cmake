@@ -7,6 +7,7 @@ locind_layer(locind_methods
     learners/methods/learner.cc
     learners/methods/learner_registry.cc
     learners/methods/maximal_criterion.cc
+    learners/methods/margin_search.cc
     learners/methods/maximal_search.cc
     learners/methods/pairwise_learner.cc
     learners/methods/penalized_fit_learner.cc
