@@ -532,7 +532,7 @@ const std::vector<std::string>& EventTests() {
 }
 
 const std::vector<std::string>& PathTests() {
-  static const std::vector<std::string> tests = {"drift-f", "drift-robust-wald"};
+  static const std::vector<std::string> tests = {"drift-f", "drift-robust-wald", "drift-exact-lr"};
   return tests;
 }
 

@@ -3,6 +3,7 @@
 #include <fstream>
 
 #include "app/io/error.h"
+#include "learners/independence/drift_transition_test.h"
 
 namespace locind::app {
 
@@ -26,6 +27,24 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
     return std::nullopt;
   }
   return options;
+}
+
+const char* PathTestNames() { return "drift-f, drift-robust-wald, drift-exact-lr"; }
+
+Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
+                                                                 std::vector<double> rates) {
+  if (name == "drift-exact-lr") {
+    Result<learners::DriftTransitionTest> made = learners::DriftTransitionTest::Create(std::move(data));
+    if (!made.ok()) return made.status();
+    return std::unique_ptr<learners::IndependenceTest>(
+        std::make_unique<learners::DriftTransitionTest>(std::move(made.value())));
+  }
+  std::optional<learners::DriftTestOptions> options = DriftTestChoice(name);
+  if (!options) return Status::Error("unknown path test '" + name + "' (" + PathTestNames() + ")");
+  options->rates = std::move(rates);
+  Result<learners::DriftTest> made = learners::DriftTest::Create(std::move(data), *options);
+  if (!made.ok()) return made.status();
+  return std::unique_ptr<learners::IndependenceTest>(std::make_unique<learners::DriftTest>(std::move(made.value())));
 }
 
 bool LooksLikeEventFile(const std::string& path) {

@@ -2,14 +2,18 @@
 // `locind learn` and study files, and the sniffing of a data file's kind.
 //
 //   event data: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed
-//   path data:  drift-f (default), drift-robust-wald
+//   path data:  drift-f (default), drift-robust-wald, drift-exact-lr
 #pragma once
 
+#include <memory>
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "learners/independence/drift_test.h"
 #include "learners/independence/hawkes_lr_test.h"
+#include "learners/independence/independence_test.h"
+#include "sim/path_data.h"
 
 namespace locind::app {
 
@@ -18,7 +22,17 @@ namespace locind::app {
 std::optional<learners::HawkesTestOptions> HawkesTestChoice(const std::string& name);
 
 // Options for the named path test ("" is the default), or nullopt.
+// Only the regression tests (drift-f, drift-robust-wald) have options.
 std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& name);
+
+// The path test names, for messages: "drift-f, drift-robust-wald, drift-exact-lr".
+const char* PathTestNames();
+// The named path test ("" is the default) on `data`. `rates` are the filter
+// rates of the regression tests (empty: their defaults; ignored by
+// drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
+// the test's own message on invalid data.
+Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
+                                                                 std::vector<double> rates = {});
 
 // True when the first line that is not a '#' comment is the event header
 // "time,process". Throws Error when the file cannot be opened.
