@@ -5,7 +5,7 @@
 //   learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]
 //
 // DATA.csv is an event file (header "time,process") or a path file (header
-// "time,<names>"); the test defaults to hawkes-lr for events and drift-f for
+// "time,<names>"); the test defaults to hawkes-lr for events and drift-exact-lr for
 // paths. The learned graph is printed (graph file format plus the dashed
 // edges and a cost line, or with --json the shape of `locind graph class
 // --json`). With --out the directory receives graph.json, graph.dot,
@@ -233,7 +233,7 @@ const char kLearnHelp[] =
     "  --methods        list the methods (name, tab, description)\n"
     "  --method NAME    the learning method\n"
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed;\n"
-    "                   paths: drift-f (default), drift-robust-wald, drift-exact-lr\n"
+    "                   paths: drift-exact-lr (default), drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
     "  --size K         screen: at most K processes in C besides the target (default 1)\n"
     "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"

@@ -7,8 +7,8 @@
 // --given to condition on its own past, the usual question). The data kind
 // is read from the header ("time,process" for events) unless --kind is
 // given. Tests: hawkes-lr (default for events), hawkes-lr-chibar,
-// hawkes-lr-signed; drift-f (default for paths), drift-robust-wald,
-// drift-exact-lr. --rates sets the exponential rate grid (events) or the
+// hawkes-lr-signed; drift-exact-lr (default for paths), drift-f,
+// drift-robust-wald. --rates sets the exponential rate grid (events) or the
 // filter rates (paths; not used by drift-exact-lr).
 // Prints target, sources, given, test, statistic, df, p_value and status
 // (with the reason when not estimable), one "key: value" per line, or one

@@ -532,7 +532,7 @@ const std::vector<std::string>& EventTests() {
 }
 
 const std::vector<std::string>& PathTests() {
-  static const std::vector<std::string> tests = {"drift-f", "drift-robust-wald", "drift-exact-lr"};
+  static const std::vector<std::string> tests = {"drift-exact-lr", "drift-f", "drift-robust-wald"};
   return tests;
 }
 

@@ -2,7 +2,7 @@
 // `locind learn` and study files, and the sniffing of a data file's kind.
 //
 //   event data: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed
-//   path data:  drift-f (default), drift-robust-wald, drift-exact-lr
+//   path data:  drift-exact-lr (default), drift-f, drift-robust-wald
 #pragma once
 
 #include <memory>
@@ -21,12 +21,14 @@ namespace locind::app {
 // name is not an event test.
 std::optional<learners::HawkesTestOptions> HawkesTestChoice(const std::string& name);
 
-// Options for the named path test ("" is the default), or nullopt.
-// Only the regression tests (drift-f, drift-robust-wald) have options.
+// Options for the named regression path test (drift-f, drift-robust-wald;
+// "" gives drift-f's), or nullopt.
 std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& name);
 
-// The path test names, for messages: "drift-f, drift-robust-wald, drift-exact-lr".
+// The path test names, for messages: "drift-exact-lr, drift-f, drift-robust-wald".
 const char* PathTestNames();
+// The path test used when none is named.
+inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
 // The named path test ("" is the default) on `data`. `rates` are the filter
 // rates of the regression tests (empty: their defaults; ignored by
 // drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
