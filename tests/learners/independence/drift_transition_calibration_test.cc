@@ -12,11 +12,15 @@
 //   * an omitted parent (p -> x1 observed but left out of C), a hidden
 //     mediator (x2 -> x3 -> h -> x1, h hidden) and a hidden common driver
 //     (h -> x2, h -> x3 -> x1, h hidden), each testing x1 _||_ x2 | {x1, x3}.
-// Rule for the bands: each null setting checks its rejection count at levels
-// 0.05 and 0.01 against a two-sided Clopper-Pearson interval (Clopper &
+// Rule for the bands: each null setting checks its rejection counts at levels
+// 0.05 and 0.01 against two-sided Clopper-Pearson intervals (Clopper &
 // Pearson 1934, Biometrika 26(4)) at confidence 1 - 0.01 / kChecks
-// (Bonferroni over the kChecks null checks of this file): the nominal level
-// must lie inside it. The seeds were not used while developing the test.
+// (Bonferroni over the kChecks null checks of this file). Correctly specified
+// nulls (uncoupled, chain): the nominal level must lie inside the interval.
+// Misspecified nulls (omitted parent, hidden processes): the interval must
+// reach down to twice the nominal level (the project's target: at most 10%
+// rejections at level 0.05). The seeds were not used while developing the
+// test.
 #include <cstdio>
 #include <string>
 
@@ -154,6 +158,13 @@ void CheckNominal(const std::vector<double>& p) {
   }
 }
 
+void CheckAtMostTwiceNominal(const std::vector<double>& p) {
+  for (double level : {0.05, 0.01}) {
+    const double lo = ClopperPearson(CountBelow(p, level), int(p.size()), 1 - 0.01 / kChecks).first;
+    CHECK(lo <= 2 * level);
+  }
+}
+
 TEST_CASE("the Clopper-Pearson interval matches SciPy") {
   // SciPy 1.10: stats.binomtest(10, 200).proportion_ci(0.99, method='exact')
   // = (0.018835, 0.103962); binomtest(0, 200) -> (0, 0.026144).
@@ -184,13 +195,13 @@ TEST_CASE("grandparent chain x2 -> x3 -> x1 at short, medium and long windows") 
 TEST_CASE("omitted parent, hidden mediator, hidden common driver") {
   const PValues omitted = Run(Setting::kOmittedParent, 0.8, 3200, 300, false);
   Report("omitted parent T=3200 drift-exact-lr", omitted.exact);
-  CheckNominal(omitted.exact);
+  CheckAtMostTwiceNominal(omitted.exact);
   const PValues mediator = Run(Setting::kHiddenMediator, 0.8, 3200, 300, false);
   Report("hidden mediator T=3200 drift-exact-lr", mediator.exact);
-  CheckNominal(mediator.exact);
+  CheckAtMostTwiceNominal(mediator.exact);
   const PValues driver = Run(Setting::kHiddenDriver, 0.8, 3200, 300, false);
   Report("hidden driver T=3200 drift-exact-lr", driver.exact);
-  CheckNominal(driver.exact);
+  CheckAtMostTwiceNominal(driver.exact);
 }
 
 TEST_CASE("power on a weak coupling x2 -> x1 (0.2) against drift-f") {
