@@ -11,6 +11,8 @@
 //    mean time of nine further queries on the same data (moments reused),
 //    and `qr_baseline_ms`, the first query done by two QR least-squares fits
 //    on the assembled design instead.
+//  - BM_DriftExactLrTest: one drift-exact-lr test on the same data with 3 and
+//    5 coordinates; counter `ratio_to_drift_f` (see the function).
 #include <benchmark/benchmark.h>
 
 #include <ctime>
@@ -18,6 +20,7 @@
 
 #include "graph/truth_graph.h"
 #include "learners/independence/drift_test.h"
+#include "learners/independence/drift_transition_test.h"
 #include "learners/independence/hawkes_lr_test.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
@@ -133,6 +136,34 @@ void BM_DriftTest(benchmark::State& state) {
   state.counters["qr_baseline_ms"] = 1e3 * qr_time / n;
 }
 BENCHMARK(BM_DriftTest)->Unit(benchmark::kMillisecond)->Iterations(5);
+
+// BM_DriftExactLrTest: one drift-exact-lr test on the same 100,000 samples
+// with |A u C u {b}| = state.range(0) coordinates (range 3 and 5: 15 and 35
+// parameters per fit), from a fresh test object (data moments included).
+// Counter `ratio_to_drift_f`: its time over that of a drift-f test of the
+// same query from a fresh object, measured in the same loop.
+void BM_DriftExactLrTest(benchmark::State& state) {
+  const sim::PathData data = DiffusionData();
+  const int d = int(state.range(0));
+  learners::TestQuery query{0, {1}, {0}};
+  for (int j = 2; j < d; ++j) query.given.push_back(j);
+  double exact_time = 0, f_time = 0;
+  for (auto _ : state) {
+    const double t0 = CpuSeconds();
+    auto exact = learners::DriftTransitionTest::Create(data).value();
+    benchmark::DoNotOptimize(exact.Run(query));
+    const double t1 = CpuSeconds();
+    state.PauseTiming();
+    auto f = learners::DriftTest::Create(data).value();
+    benchmark::DoNotOptimize(f.Run(query));
+    const double t2 = CpuSeconds();
+    state.ResumeTiming();
+    exact_time += t1 - t0;
+    f_time += t2 - t1;
+  }
+  state.counters["ratio_to_drift_f"] = exact_time / f_time;
+}
+BENCHMARK(BM_DriftExactLrTest)->Arg(3)->Arg(5)->Unit(benchmark::kMillisecond)->Iterations(3);
 
 }  // namespace
 

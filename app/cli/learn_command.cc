@@ -5,7 +5,7 @@
 //   learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]
 //
 // DATA.csv is an event file (header "time,process") or a path file (header
-// "time,<names>"); the test defaults to hawkes-lr for events and drift-f for
+// "time,<names>"); the test defaults to hawkes-lr for events and drift-exact-lr for
 // paths. The learned graph is printed (graph file format plus the dashed
 // edges and a cost line, or with --json the shape of `locind graph class
 // --json`). With --out the directory receives graph.json, graph.dot,
@@ -109,13 +109,12 @@ void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathCsvFile(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
-  const std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
-  if (!options) {
-    throw UsageError{"unknown test '" + o.test + "' for path data (drift-f, drift-robust-wald)"};
+  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+    throw UsageError{"unknown test '" + o.test + "' for path data (" + PathTestNames() + ")"};
   }
-  auto made = learners::DriftTest::Create(*in.paths, *options);
+  auto made = MakePathTest(o.test, *in.paths);
   if (!made.ok()) throw Error{o.data, 0, 0, "", made.status().message()};
-  in.test = std::make_unique<learners::DriftTest>(std::move(made.value()));
+  in.test = std::move(made.value());
 }
 
 Inputs LoadInputs(const LearnOptions& o) {
@@ -234,7 +233,7 @@ const char kLearnHelp[] =
     "  --methods        list the methods (name, tab, description)\n"
     "  --method NAME    the learning method\n"
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed;\n"
-    "                   paths: drift-f (default), drift-robust-wald\n"
+    "                   paths: drift-exact-lr (default), drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
     "  --size K         screen: at most K processes in C besides the target (default 1)\n"
     "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"

@@ -7,8 +7,9 @@
 // --given to condition on its own past, the usual question). The data kind
 // is read from the header ("time,process" for events) unless --kind is
 // given. Tests: hawkes-lr (default for events), hawkes-lr-chibar,
-// hawkes-lr-signed; drift-f (default for paths), drift-robust-wald. --rates
-// sets the exponential rate grid (events) or the filter rates (paths).
+// hawkes-lr-signed; drift-exact-lr (default for paths), drift-f,
+// drift-robust-wald. --rates sets the exponential rate grid (events) or the
+// filter rates (paths; not used by drift-exact-lr).
 // Prints the query in words (b, A and C by name, and whether b's own past is
 // in C), then target, sources, given, test, statistic, df, p_value and
 // status (with the reason when not estimable), one "key: value" per line, or
@@ -102,14 +103,12 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathCsvFile(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
-  std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
-  if (!options) {
-    throw UsageError{"unknown test '" + o.test + "' for paths (drift-f, drift-robust-wald)"};
+  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+    throw UsageError{"unknown test '" + o.test + "' for paths (" + PathTestNames() + ")"};
   }
-  options->rates = ParseRates(o);
-  auto made = learners::DriftTest::Create(std::get<sim::PathData>(std::move(read)), *options);
+  auto made = MakePathTest(o.test, std::get<sim::PathData>(std::move(read)), ParseRates(o));
   if (!made.ok()) throw Error{o.data, 0, 0, "", made.status().message()};
-  return std::make_unique<learners::DriftTest>(std::move(made.value()));
+  return std::move(made.value());
 }
 
 // Indices of the named processes, sorted and without repeats.

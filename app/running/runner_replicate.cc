@@ -139,11 +139,9 @@ std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
     options->seed = draws_seed;
     return std::make_unique<learners::HawkesLrTest>(data.features, *options);
   }
-  const std::optional<learners::DriftTestOptions> options = DriftTestChoice(spec.test);
-  if (!options) return "test: unknown path test '" + spec.test + "'";
-  Result<learners::DriftTest> made = learners::DriftTest::Create(*data.paths, *options);
+  Result<std::unique_ptr<learners::IndependenceTest>> made = MakePathTest(spec.test, *data.paths);
   if (!made.ok()) return "test: " + made.status().message();
-  return std::make_unique<learners::DriftTest>(std::move(made.value()));
+  return std::move(made.value());
 }
 
 // The history features shared by every Hawkes test of the replicate,

@@ -560,7 +560,7 @@ const std::vector<std::string>& EventTests() {
 }
 
 const std::vector<std::string>& PathTests() {
-  static const std::vector<std::string> tests = {"drift-f", "drift-robust-wald"};
+  static const std::vector<std::string> tests = {"drift-exact-lr", "drift-f", "drift-robust-wald"};
   return tests;
 }
 

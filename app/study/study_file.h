@@ -26,6 +26,6 @@ StudyOrErrors ReadStudyFile(const std::string& path);
 
 // The tests accepted for each kind of data.
 const std::vector<std::string>& EventTests();  // hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed
-const std::vector<std::string>& PathTests();   // drift-f, drift-robust-wald
+const std::vector<std::string>& PathTests();   // drift-exact-lr (default), drift-f, drift-robust-wald
 
 }  // namespace locind::app

@@ -3,6 +3,7 @@
 #include <fstream>
 
 #include "app/io/error.h"
+#include "learners/independence/drift_transition_test.h"
 
 namespace locind::app {
 
@@ -26,6 +27,25 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
     return std::nullopt;
   }
   return options;
+}
+
+const char* PathTestNames() { return "drift-exact-lr, drift-f, drift-robust-wald"; }
+
+Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
+                                                                 std::vector<double> rates) {
+  const std::string chosen = name.empty() ? std::string(kDefaultPathTest) : name;
+  if (chosen == "drift-exact-lr") {
+    Result<learners::DriftTransitionTest> made = learners::DriftTransitionTest::Create(std::move(data));
+    if (!made.ok()) return made.status();
+    return std::unique_ptr<learners::IndependenceTest>(
+        std::make_unique<learners::DriftTransitionTest>(std::move(made.value())));
+  }
+  std::optional<learners::DriftTestOptions> options = DriftTestChoice(chosen);
+  if (!options) return Status::Error("unknown path test '" + name + "' (" + PathTestNames() + ")");
+  options->rates = std::move(rates);
+  Result<learners::DriftTest> made = learners::DriftTest::Create(std::move(data), *options);
+  if (!made.ok()) return made.status();
+  return std::unique_ptr<learners::IndependenceTest>(std::make_unique<learners::DriftTest>(std::move(made.value())));
 }
 
 bool LooksLikeEventFile(const std::string& path) {

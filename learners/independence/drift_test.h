@@ -24,7 +24,10 @@
 //     for state-dependent noise and nonlinear drifts.
 //
 // Default filter rates (DefaultDriftRates): with dt the mean spacing, K = 2
-// rates 1/(10 dt) and 1/(100 dt) (time constants of 10 and 100 samples).
+// rates 1/(10 dt) and 1/(100 dt) (time constants of 10 and 100 samples),
+// each kept only when the window holds kMinFilterWindows of its time
+// constants (SupportedDriftRates; at dt = 0.1: the fast filter from a window
+// of 50, the slow one from 500).
 //
 // Not estimable: fewer than p + 10 increments ("too few samples"), a
 // rank-deficient design ("singular design": for the F test, an eigenvalue of
@@ -56,6 +59,13 @@ struct DriftTestOptions {
 };
 
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count = 2);
+
+// The rates r of `rates` whose time constant 1/r fits at least
+// kMinFilterWindows times into the window t_n - t_0 (possibly none: then the
+// drift uses current levels only). Applied to the default rates only; rates
+// given in the options are used as given.
+inline constexpr double kMinFilterWindows = 50;
+std::vector<double> SupportedDriftRates(const sim::PathData& data, const std::vector<double>& rates);
 
 // Checks: at least 2 samples, strictly increasing finite times, finite values,
 // one column per name.

@@ -3,6 +3,7 @@ locind_layer(locind_independence
   DEPS locind_sim
   SOURCES
     learners/independence/drift_test.cc
+    learners/independence/drift_transition_test.cc
     learners/independence/hawkes_features.cc
     learners/independence/hawkes_lr_test.cc
     learners/independence/oracle_test.cc

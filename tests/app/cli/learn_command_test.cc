@@ -124,7 +124,7 @@ TEST_CASE("a data run: path file with the drift test") {
   const Outcome o = Learn({file.string(), "--method", "pairwise"});
   CHECK(o.code == kExitOk);
   CHECK(o.out.rfind("nodes: [x1, x2]\n", 0) == 0);
-  CHECK(o.out.find("test drift-f, tests 4") != std::string::npos);
+  CHECK(o.out.find("test drift-exact-lr, tests 4") != std::string::npos);
   std::filesystem::remove(file);
 }
 

@@ -18,6 +18,7 @@
 #include "app/io/path_csv.h"
 #include "graph/dmg.h"
 #include "learners/independence/drift_test.h"
+#include "learners/independence/drift_transition_test.h"
 #include "learners/independence/hawkes_lr_test.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
@@ -92,10 +93,10 @@ TEST_CASE("JSON output for paths, with the kind read from the header") {
   const std::regex layout(
       "\\{\"query\": \"target b, sources \\{a\\}, given \\{b\\} \\(the target's own past is included\\)\", "
       "\"target_past_given\": true, \"target\": \"b\", \"sources\": \\[\"a\"\\], \"given\": \\[\"b\"\\], \"test\": "
-      "\"drift-f\", \"statistic\": [0-9.e+-]+, \"df\": 3, \"p_value\": [0-9.e+-]+, \"status\": "
+      "\"drift-exact-lr\", \"statistic\": [0-9.e+-]+, \"df\": 1, \"p_value\": [0-9.e+-]+, \"status\": "
       "\"ok\", \"reason\": \"\"\\}\n");
   CHECK(std::regex_match(r.out, layout));
-  auto test = learners::DriftTest::Create(f.path_data).value();
+  auto test = learners::DriftTransitionTest::Create(f.path_data).value();
   const learners::TestResult direct = test.Run({1, {0}, {1}});
   CHECK(r.out.find("\"statistic\": " + base::FormatNumber(direct.statistic) + ",") != std::string::npos);
 }

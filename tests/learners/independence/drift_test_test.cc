@@ -79,7 +79,7 @@ TEST_CASE("the F statistic of two coefficients (q = 2) is the Wald statistic ove
   auto test = DriftTest::Create(d, {.rates = {}}).value();
   const TestResult r = test.Run({1, {0}, {1}});
   REQUIRE(r.status == TestStatus::kOk);
-  CHECK(r.df == 3);  // current value and two filters of a
+  CHECK(r.df == 2);  // current value and the fast filter of a (window 200 < 50 / 0.1)
   auto one = DriftTest::Create(d, {.rates = {0.5}}).value();
   const Eigen::MatrixXd x = one.Design({0, 1});
   const Eigen::VectorXd y = one.Response(1);
@@ -97,8 +97,22 @@ TEST_CASE("the F statistic of two coefficients (q = 2) is the Wald statistic ove
   CHECK(f.statistic == doctest::Approx(wald_over_q).epsilon(1e-8));
 }
 
+TEST_CASE("default filters are kept only when the window holds 50 time constants") {
+  // Sampling 0.1: default rates 1 and 0.1 (time constants 10 and 100 samples).
+  const std::vector<double> rates = DefaultDriftRates(Draw(0, 10, 1));
+  REQUIRE(rates.size() == 2);
+  CHECK(rates[0] == doctest::Approx(1.0));
+  CHECK(rates[1] == doctest::Approx(0.1));
+  CHECK(DriftTest::Create(Draw(0, 49, 1)).value().rates().empty());
+  CHECK(DriftTest::Create(Draw(0, 51, 1)).value().rates().size() == 1);
+  CHECK(DriftTest::Create(Draw(0, 499, 1)).value().rates().size() == 1);
+  CHECK(DriftTest::Create(Draw(0, 501, 1)).value().rates().size() == 2);
+  // Rates given in the options are used as given.
+  CHECK(DriftTest::Create(Draw(0, 20, 1), {.rates = {0.01}}).value().rates() == std::vector<double>{0.01});
+}
+
 TEST_CASE("the F test from shared moments equals two QR fits") {
-  sim::PathData d = Draw(0.4, 300, 6);
+  sim::PathData d = Draw(0.4, 600, 6);  // window 600: both default filters kept
   auto test = DriftTest::Create(d).value();
   const TestResult r = test.Run({1, {0}, {1}});
   const Eigen::MatrixXd full = test.Design({0, 1});

@@ -1,0 +1,128 @@
+#include "learners/independence/drift_transition_test.h"
+
+#include <cmath>
+#include <numbers>
+
+#include <doctest/doctest.h>
+
+#include "base/random_stream.h"
+#include "graph/dmg.h"
+#include "sim/diffusion_model.h"
+#include "sim/diffusion_simulator.h"
+
+namespace locind::learners {
+namespace {
+
+// Exact simulation of a -> b (loops on both) sampled every 0.1.
+sim::PathData Draw(double coupling, double horizon, uint64_t seed) {
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 0);
+  g.AddDirected(1, 1);
+  if (coupling != 0) g.AddDirected(0, 1);
+  sim::DiffusionModel m = sim::LinearDiffusion(graph::TruthGraph{g, {}}, 1.0, coupling, 1.0);
+  sim::PathRunOptions o;
+  o.horizon = horizon;
+  o.interval = 0.1;
+  o.burn_in = 10;
+  o.method = sim::PathMethod::kExact;
+  base::RandomStream random(seed);
+  return sim::SimulateDiffusion(m, o, random).value();
+}
+
+TEST_CASE("one coordinate: the fit is the closed-form exact maximum likelihood of an OU path") {
+  // The exact discretisation of dX = (c + m X) dt + s dW over a step D is the
+  // Gaussian AR(1) X' = phi X + k + e, phi = e^{mD}, Var e = s^2 (e^{2mD} - 1)
+  // / (2m) (e.g. Gardiner, Handbook of Stochastic Methods, Sec. 4.4.4). The
+  // AR(1) maximum likelihood conditional on X_0 is least squares: phi =
+  // Syz / Szz, Var e = RSS / n, l = -n/2 (log(2 pi RSS / n) + 1) (common
+  // practice, no source); mapping back gives m and s.
+  const sim::PathData d = Draw(0, 300, 3);
+  const Eigen::Index n = d.samples() - 1;
+  const Eigen::VectorXd z = d.values.col(0).head(n), y = d.values.col(0).tail(n);
+  const Eigen::VectorXd zc = z.array() - z.mean(), yc = y.array() - y.mean();
+  const double phi = zc.dot(yc) / zc.squaredNorm();
+  const double rss = (yc - phi * zc).squaredNorm();
+  const double m = std::log(phi) / 0.1;
+  const double s = std::sqrt(rss / double(n) * 2 * m / (std::exp(2 * m * 0.1) - 1));
+  const double loglik = -0.5 * double(n) * (std::log(2 * std::numbers::pi * rss / double(n)) + 1);
+
+  auto test = DriftTransitionTest::Create(d).value();
+  const Eigen::MatrixX<bool> allowed = Eigen::MatrixX<bool>::Constant(1, 1, true);
+  const TransitionFit fit = test.Fit({0}, allowed).value();
+  CHECK(fit.converged);
+  CHECK(fit.M(0, 0) == doctest::Approx(m).epsilon(1e-4));
+  CHECK(fit.sigma[0] == doctest::Approx(s).epsilon(1e-4));
+  CHECK(fit.log_likelihood == doctest::Approx(loglik).epsilon(1e-9));
+}
+
+TEST_CASE("two coordinates: the fit recovers the drift of a long exact simulation") {
+  // Truth M = [[-1, 0], [0.5, -1]], sigma = 1. With 100,000 steps of 0.1 the
+  // standard errors of the drift entries are about sqrt(2 |m| / T) ~ 0.014
+  // (OU asymptotics, e.g. Kutoyants 2004, Statistical Inference for Ergodic
+  // Diffusion Processes); 0.07 is five of them.
+  const sim::PathData d = Draw(0.5, 10000, 5);
+  auto test = DriftTransitionTest::Create(d).value();
+  const Eigen::MatrixX<bool> allowed = Eigen::MatrixX<bool>::Constant(2, 2, true);
+  const TransitionFit fit = test.Fit({0, 1}, allowed).value();
+  CHECK(fit.converged);
+  CHECK(std::abs(fit.M(0, 0) + 1) < 0.07);
+  CHECK(std::abs(fit.M(0, 1)) < 0.07);
+  CHECK(std::abs(fit.M(1, 0) - 0.5) < 0.07);
+  CHECK(std::abs(fit.M(1, 1) + 1) < 0.07);
+  CHECK(std::abs(fit.sigma[0] - 1) < 0.02);
+  CHECK(std::abs(fit.sigma[1] - 1) < 0.02);
+  // A restriction is honoured: M(1, 0) stays zero.
+  Eigen::MatrixX<bool> restricted = allowed;
+  restricted(1, 0) = false;
+  const TransitionFit null = test.Fit({0, 1}, restricted).value();
+  CHECK(null.M(1, 0) == 0);
+  CHECK(null.log_likelihood < fit.log_likelihood);
+}
+
+TEST_CASE("the test rejects a strong coupling and reports |A| degrees of freedom") {
+  auto test = DriftTransitionTest::Create(Draw(0.5, 300, 7)).value();
+  CHECK(test.kind() == "drift-exact-lr");
+  const TestResult r = test.Run({1, {0}, {1}});
+  REQUIRE(r.status == TestStatus::kOk);
+  CHECK(r.df == 1);
+  CHECK(r.p_value < 1e-6);
+  // The reverse direction is a null; a cached answer is returned again.
+  const TestResult reverse = test.Run({0, {1}, {0}});
+  REQUIRE(reverse.status == TestStatus::kOk);
+  CHECK(reverse.p_value > 1e-3);
+  test.Run({0, {1}, {0}});
+  CHECK(test.distinct_queries() == 2);
+}
+
+TEST_CASE("sampling: a gap is handled, many distinct spacings are refused, short data is not estimable") {
+  sim::PathData d = Draw(0.5, 100, 9);
+  // A gap: every time from sample 500 on is shifted by 0.25 (two spacings).
+  for (size_t i = 500; i < d.time.size(); ++i) d.time[i] += 0.25;
+  auto gap = DriftTransitionTest::Create(d).value();
+  const TestResult ok = gap.Run({1, {0}, {1}});
+  CHECK(ok.status == TestStatus::kOk);
+  CHECK(ok.p_value < 1e-3);
+  // Jittered times: every spacing distinct.
+  sim::PathData jitter = Draw(0.5, 100, 9);
+  for (size_t i = 1; i < jitter.time.size(); ++i) jitter.time[i] += 1e-3 * double((i * i) % 101) / 101;
+  auto irregular = DriftTransitionTest::Create(jitter).value();
+  const TestResult refused = irregular.Run({1, {0}, {1}});
+  CHECK(refused.status == TestStatus::kNotEstimable);
+  CHECK(refused.reason.rfind("irregular sampling", 0) == 0);
+  // 2 coordinates need 2 * 4 + 10 = 18 increments.
+  auto tiny = DriftTransitionTest::Create(Draw(0.5, 1.5, 9)).value();
+  const TestResult few = tiny.Run({1, {0}, {1}});
+  CHECK(few.status == TestStatus::kNotEstimable);
+  CHECK(few.reason.rfind("too few samples", 0) == 0);
+}
+
+TEST_CASE("a coordinate that never moves is not estimable") {
+  sim::PathData d = Draw(0.5, 50, 11);
+  d.values.col(0).setConstant(2.0);
+  auto test = DriftTransitionTest::Create(d).value();
+  const TestResult r = test.Run({1, {0}, {1}});
+  CHECK(r.status == TestStatus::kNotEstimable);
+}
+
+}  // namespace
+}  // namespace locind::learners
