@@ -20,7 +20,10 @@
 // width whenever the truth means tie, which discrete counts often do. The
 // cluster bootstrap's own limit: with few truths it sees little of the
 // variation between truths, so with fewer than about 5 truths read it as
-// conditional on the truths drawn; `truths` says how many there were. When
+// conditional on the truths drawn; `truths` says how many there were
+// (tests/metrics/cluster_coverage_test.cc: 95% intervals cover in about 95%
+// of simulated studies with 2 truths that do not differ, or 10 truths that
+// do; with 2 truths that differ, sd 0.17 in power, only about 72%). When
 // every replicate gives the same value, every resample does too and the
 // interval is that value with zero width.
 #pragma once
