@@ -95,10 +95,14 @@ Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int r
   const double estimate = numerator / denominator;
   // Stage 1 resamples the clusters (truths), stage 2 the replicates within
   // each drawn cluster, both with replacement (Davison & Hinkley 1997, sec.
-  // 3.8, section from memory). With few clusters stage 1 sees little of the
-  // variation between truths; stage 2 with replacement adds the within-truth
-  // variation once more, which makes the interval conservative when truths
-  // do not differ (tests/metrics/cluster_coverage_test.cc measures it).
+  // 3.8 on hierarchical data, section number from memory; Field & Welsh
+  // 2007, J. R. Statist. Soc. B 69(3), show resampling clusters is consistent
+  // under a random-effect model). Davison & Hinkley prefer stage 2 without
+  // replacement when clusters are many; with 2 truths, stage 1 alone has
+  // only 3 distinct resamples and halves the between-truth variance, so
+  // stage 2 with replacement adds the within-truth variation back, which
+  // makes the interval somewhat conservative when truths do not differ
+  // (tests/metrics/cluster_coverage_test.cc measures it).
   std::vector<double> stats;
   stats.reserve(resamples);
   for (int b = 0; b < resamples; ++b) {

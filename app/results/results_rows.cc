@@ -163,14 +163,15 @@ std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   }
   int recovered = 0;
   ok = ok && ReadNumber(f[i], r.score.power) && ReadNumber(f[i + 1], r.score.false_edge_rate) &&
-       ReadInt(f[i + 2], r.score.hamming) && ReadInt(f[i + 3], recovered) &&
-       ReadInt(f[i + 4], r.score.marks_compared) && ReadInt(f[i + 5], r.score.marks_agree) &&
-       ReadNumber(f[i + 6], r.score.mark_agreement);
+       ReadInt(f[i + 2], r.score.hamming) && ReadInt(f[i + 3], recovered);
+  i += 4;
+  ok = ok && ReadInt(f[i], r.score.marks_compared) && ReadInt(f[i + 1], r.score.marks_agree) &&
+       ReadNumber(f[i + 2], r.score.mark_agreement);
   i += 3;
-  ok = ok && ReadInt(f[i + 4], r.tests) && ReadInt(f[i + 5], r.not_estimable) &&
-       ReadInt(f[i + 6], r.largest_given) && ReadNumber(f[i + 7], r.timing_simulate_seconds) &&
-       ReadNumber(f[i + 8], r.timing_test_seconds) && ReadNumber(f[i + 9], r.timing_learn_seconds) &&
-       ReadNumber(f[i + 10], r.timing_score_seconds);
+  ok = ok && ReadInt(f[i], r.tests) && ReadInt(f[i + 1], r.not_estimable) &&
+       ReadInt(f[i + 2], r.largest_given) && ReadNumber(f[i + 3], r.timing_simulate_seconds) &&
+       ReadNumber(f[i + 4], r.timing_test_seconds) && ReadNumber(f[i + 5], r.timing_learn_seconds) &&
+       ReadNumber(f[i + 6], r.timing_score_seconds);
   r.score.class_recovered = recovered != 0;
   if (!ok) return std::nullopt;
   return r;
