@@ -30,6 +30,23 @@ size_t Draw(base::RandomStream& random, size_t n) {
   return std::min(n - 1, static_cast<size_t>(random.Uniform() * n));
 }
 
+// Clusters in order of first appearance, so the draws depend only on the
+// order of the values, never on the cluster numbers themselves.
+std::vector<std::vector<const ClusteredValue*>> GroupByCluster(const std::vector<ClusteredValue>& values) {
+  std::vector<int> ids;
+  std::vector<std::vector<const ClusteredValue*>> clusters;
+  for (const ClusteredValue& v : values) {
+    auto it = std::find(ids.begin(), ids.end(), v.cluster);
+    if (it == ids.end()) {
+      ids.push_back(v.cluster);
+      clusters.emplace_back();
+      it = ids.end() - 1;
+    }
+    clusters[it - ids.begin()].push_back(&v);
+  }
+  return clusters;
+}
+
 }  // namespace
 
 Interval WilsonInterval(int64_t successes, int64_t trials, double confidence) {
@@ -69,36 +86,22 @@ Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
   return {mean, means[std::min(lo, means.size() - 1)], means[std::min(hi, means.size() - 1)]};
 }
 
-}  // namespace locind::metrics
-
-namespace locind::metrics {
-
 Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int resamples,
                                 base::RandomStream& random, double confidence) {
-  // Clusters in order of first appearance, so the draws depend only on the
-  // order of `values`, never on the cluster numbers themselves.
-  std::vector<int> ids;
-  std::vector<std::vector<const ClusteredValue*>> clusters;
   double numerator = 0, denominator = 0;
   for (const ClusteredValue& v : values) {
     numerator += v.numerator;
     denominator += v.denominator;
-    auto it = std::find(ids.begin(), ids.end(), v.cluster);
-    if (it == ids.end()) {
-      ids.push_back(v.cluster);
-      clusters.emplace_back();
-      it = ids.end() - 1;
-    }
-    clusters[it - ids.begin()].push_back(&v);
   }
+  const std::vector<std::vector<const ClusteredValue*>> clusters = GroupByCluster(values);
   if (denominator == 0) return {kNaN, kNaN, kNaN};
   const double estimate = numerator / denominator;
   // Stage 1 resamples the clusters (truths), stage 2 the replicates within
   // each drawn cluster, both with replacement (Davison & Hinkley 1997, sec.
   // 3.8 on hierarchical data, section number from memory; Field & Welsh
   // 2007, J. R. Statist. Soc. B 69(3), show resampling clusters is consistent
-  // under a random-effect model). Davison & Hinkley prefer stage 2 without
-  // replacement when clusters are many; with 2 truths, stage 1 alone has
+  // under a random-effect model). Keeping each drawn cluster whole (no stage
+  // 2) is the usual choice when clusters are many; with 2 truths, stage 1 alone has
   // only 3 distinct resamples and halves the between-truth variance, so
   // stage 2 with replacement adds the within-truth variation back, which
   // makes the interval somewhat conservative when truths do not differ
