@@ -1,7 +1,10 @@
 // locind plan: the observation length each learner needs.
 //
-//   plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR]
+//   plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at "hidden=2 level=0.05"]
 //
+// The search runs for every combination of the other grid factors (hidden
+// count, stationarity target, level), or for those --at names; the report
+// and plan.csv name the combination of each plan.
 // For every learner of the study, the smallest observation length at which
 // the pooled power reaches --power and the false-edge rate stays at or below
 // --false-edges, found by the adaptive search of app/running/study_planner.h, with
@@ -29,27 +32,35 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   PlanTargets targets;
   int threads = 1;
   std::string out_dir;
+  std::string at;
   po::options_description d("locind plan");
   d.add_options()("study", po::value(&path), "study file")("power", po::value(&targets.power), "target power")(
       "false-edges", po::value(&targets.false_edges), "largest false-edge rate")(
-      "threads", po::value(&threads), "worker threads")("out", po::value(&out_dir), "folder for plan.csv");
+      "threads", po::value(&threads), "worker threads")("out", po::value(&out_dir), "folder for plan.csv")(
+      "at", po::value(&at), "combination of the other grid factors");
   po::positional_options_description positional;
   positional.add("study", 1);
   po::variables_map vm;
   po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
   po::notify(vm);
-  if (path.empty()) throw UsageError{"usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR]"};
+  if (path.empty()) throw UsageError{"usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at COMBINATION]"};
   if (!(targets.power > 0 && targets.power <= 1)) throw UsageError{"--power must lie in (0, 1]"};
   if (!(targets.false_edges >= 0 && targets.false_edges < 1)) throw UsageError{"--false-edges must lie in [0, 1)"};
   if (threads < 1 || threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
   StudyOrErrors read = ReadStudyFile(path);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   const StudySpec& study = std::get<StudySpec>(read);
-  const std::vector<LearnerPlan> plans =
-      PlanLengths(study, targets, threads, [&err](const std::string& line) { err << line << "\n" << std::flush; });
+  const Result<std::vector<PlanCombination>> combos = PickCombinations(study, at);
+  if (!combos.ok()) throw UsageError{"--at: " + combos.status().message()};
+  err << "plan: " << combos->size() << " combination" << (combos->size() == 1 ? "" : "s")
+      << " of the other grid factors:";
+  for (const PlanCombination& c : *combos) err << (&c == &combos->front() ? " " : "; ") << c.Text();
+  err << "\n";
+  const std::vector<LearnerPlan> plans = PlanLengths(
+      study, targets, threads, [&err](const std::string& line) { err << line << "\n" << std::flush; }, *combos);
   out << PlanReport(plans, targets);
   if (!out_dir.empty()) {
     std::error_code ec;
@@ -68,10 +79,12 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
 
 int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
-    out << "usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR]\n"
+    out << "usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at TEXT]\n"
            "  per learner, the smallest observation length with power >= --power and false-edge\n"
            "  rate <= --false-edges (search settings: the plan section of the study file)\n"
-           "  --out DIR     also write DIR/plan.csv (locind report DIR draws the targets)\n";
+           "  --out DIR     also write DIR/plan.csv (locind report DIR draws the targets)\n"
+           "  --at TEXT     plan only the combinations of the other grid factors that match TEXT,\n"
+           "                e.g. \"hidden=2 target=0.6 level=0.05\" (default: every combination)\n";
     return kExitOk;
   }
   return GuardCommand("plan", err, [&] {

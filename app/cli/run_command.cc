@@ -30,6 +30,7 @@
 #include "app/running/runner_mpi.h"
 #include "app/study/study_cost.h"
 #include "app/study/study_file.h"
+#include "app/study/truth_models.h"
 
 namespace locind::app {
 namespace {
@@ -85,14 +86,19 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   RankGroup ranks(o.assign);
   if (!ranks.lead()) return ranks.Serve(o.study, o.threads);
   StudyOrErrors read = ReadStudyFile(o.study);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   const StudySpec& study = std::get<StudySpec>(read);
   const std::vector<Cell> cells = ExpandGrid(study);
   const StudyTruths truths(study, cells);
   const StudyCost cost = EstimateCost(study, cells, truths);
+  // Rescaled parameters outside their configured ranges: said before any work
+  // (and again in study.json, rescale_warnings).
+  for (const std::string& w : RescaleWarnings(TruthModels(study, cells, truths))) {
+    err << "locind run: warning: " << w << "\n";
+  }
   if (o.check) {
     out << CostText(study, cost, o.threads);
     if (o.part.parts > 1) {
@@ -103,7 +109,7 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     return kExitOk;
   }
   if (const std::string memory = MemoryProblem(study, cost); !memory.empty()) {
-    err << InputError{o.study, 0, 0, "memory_mb", memory}.ToString() << "\n";
+    err << Error{o.study, 0, 0, "memory_mb", memory}.ToString() << "\n";
     return kExitInputError;
   }
   const std::string dir = o.out.empty() ? "results/" + study.name : o.out;

@@ -124,6 +124,12 @@ std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const R
   return groups;
 }
 
+// A plan belongs on the panel of its own combination only.
+bool PlanFitsGroup(const PlanLine& p, const GroupKey& g) {
+  const double target = std::get<2>(g);
+  return p.Fits(std::get<0>(g), std::get<1>(g), std::isnan(target) ? std::nullopt : std::optional<double>(target));
+}
+
 using Pick = metrics::Interval SummaryLine::*;
 
 std::vector<PlotSeries> SeriesOf(const StudySpec& study, const std::vector<const SummaryLine*>& lines, Pick pick) {
@@ -235,12 +241,13 @@ void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupK
     false_edges.target = data.plan.front().target_false_edge_rate;
     false_edges.target_label = "limit " + Num(*false_edges.target);
     for (const PlanLine& p : data.plan) {
-      if (p.reached) power.marks.push_back({StyleOf(study, p.learner), p.length});
+      if (p.reached && PlanFitsGroup(p, group)) power.marks.push_back({StyleOf(study, p.learner), p.length});
     }
     false_edges.marks = power.marks;
   }
   const std::string plan_note = data.plan.empty() ? "" : " Grey dashed: the target of locind plan; dotted "
-                                                         "verticals: each learner's planned length.";
+                                                         "verticals: each learner's planned length for "
+                                                         "this panel's combination (none: not planned).";
   section.figures.push_back(PlotFigure(
       "power" + suffix, "Power against observation length (" + GroupText(group) + ")",
       "Share of the solid edges of the maximal graph N that were reported, pooled over replicates and "

@@ -35,6 +35,7 @@ class Table {
   }
 
   size_t size() const { return rows_.size(); }
+  bool Has(const std::string& name) const { return column_.count(name) > 0; }
   const std::string& Text(size_t row, const std::string& name) const {
     return rows_[row].fields[Column(name)];
   }
@@ -186,11 +187,23 @@ void ReadPlan(const Table& t, ReportData& d) {
     p.target_false_edge_rate = t.Number(i, "target_false_edge_rate");
     p.reached = t.Text(i, "reached") == "yes";
     p.length = t.Number(i, "length");
+    // The combination of the other grid factors (columns added with per-combination plans).
+    if (t.Has("level")) p.level = t.Number(i, "level");
+    if (t.Has("hidden_count")) p.hidden_count = t.Whole(i, "hidden_count");
+    if (t.Has("stationarity_target") && !t.Text(i, "stationarity_target").empty()) {
+      p.stationarity_target = t.Number(i, "stationarity_target");
+    }
     d.plan.push_back(std::move(p));
   }
 }
 
 }  // namespace
+
+bool PlanLine::Fits(double panel_level, int panel_hidden_count, std::optional<double> panel_target) const {
+  if (!level) return true;  // plan.csv from before the combination columns
+  return *level == panel_level && (!hidden_count || *hidden_count == panel_hidden_count) &&
+         stationarity_target == panel_target;
+}
 
 Result<ReportData> ReadReportData(const std::string& dir) {
   ReportData d;

@@ -60,6 +60,14 @@ struct PlanLine {
   double target_false_edge_rate = 0;
   bool reached = false;
   double length = 0;  // NaN when not reached
+  // The combination planned for (plan.csv from before these columns: unset,
+  // the plan then applies to every panel).
+  std::optional<double> level;
+  std::optional<int> hidden_count;
+  std::optional<double> stationarity_target;
+  // True when the plan is for this combination (the panel of a report); a
+  // plan without the combination columns fits every combination.
+  bool Fits(double panel_level, int panel_hidden_count, std::optional<double> panel_target) const;
 };
 
 struct ReportData {

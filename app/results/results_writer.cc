@@ -7,6 +7,7 @@
 #include "app/io/atomic_file.h"
 #include "app/io/graph_json.h"
 #include "app/study/truth_drawings.h"
+#include "app/study/truth_models.h"
 #include "app/io/svg_render.h"
 #include "learners/methods/learner_registry.h"
 
@@ -51,7 +52,8 @@ std::string ProcessJson(const StudySpec& study) {
     o << "{\"events\": {\"kernel\": \"exponential\", \"baseline\": \"" << Range(e.baseline)
       << "\", \"weight\": \"" << Range(e.weight) << "\", \"loop_weight\": \"" << Range(e.loop_weight)
       << "\", \"decay\": \"" << Range(e.decay) << "\", \"spectral_radius\": "
-      << OptionalNumber(e.spectral_radius) << ", \"burn_in\": " << Num(e.burn_in)
+      << OptionalNumber(e.spectral_radius) << ", \"rescale\": \"" << (e.rescale_both ? "both" : "down")
+      << "\", \"burn_in\": " << Num(e.burn_in)
       << ", \"event_cap\": " << e.event_cap << "}}";
   } else {
     const PathProcessSpec& p = study.path_process;
@@ -59,7 +61,8 @@ std::string ProcessJson(const StudySpec& study) {
       << Range(p.self_rate) << "\", \"coupling\": \"" << Range(p.coupling) << "\", \"noise\": "
       << Num(p.noise) << ", \"step\": " << Num(p.step) << ", \"interval\": " << Num(p.interval)
       << ", \"burn_in\": " << Num(p.burn_in) << ", \"method\": \"" << (p.exact ? "exact" : "euler")
-      << "\", \"drift_bound\": " << OptionalNumber(p.drift_bound) << "}}";
+      << "\", \"drift_bound\": " << OptionalNumber(p.drift_bound) << ", \"rescale\": \""
+      << (p.rescale_both ? "both" : "down") << "\"}}";
   }
   return o.str();
 }
@@ -89,6 +92,49 @@ std::string TruthsJson(const StudyTruths& truths) {
   o << "\n  ]";
   return o.str();
 }
+
+// ---- truth models: parameters as simulated, rescaling, model files ----
+
+std::string TruthModelsJson(const std::vector<TruthModel>& models) {
+  std::ostringstream o;
+  o << "[";
+  for (size_t i = 0; i < models.size(); ++i) {
+    const TruthModel& t = models[i];
+    o << (i ? ",\n    " : "\n    ") << "{\"truth\": " << JsonString(t.truth) << ", \"label\": "
+      << JsonString(t.label) << ", \"stationarity_target\": " << OptionalNumber(t.target);
+    if (!t.problem.empty()) {
+      o << ", \"problem\": " << JsonString(t.problem) << "}";
+      continue;
+    }
+    o << ", \"model_file\": " << JsonString("truths/" + t.label + ".model.yaml")
+      << ", \"stationarity_drawn\": " << Num(t.drawn_value) << ", \"stationarity_simulated\": "
+      << Num(t.simulated_value) << ", \"scale\": " << Num(t.scale) << ", \"outside_range\": "
+      << (t.outside_range.empty() ? "null" : JsonString(t.outside_range)) << ", \"parameters\": "
+      << t.parameters_json << "}";
+  }
+  o << "\n  ]";
+  return o.str();
+}
+
+std::string WarningsJson(const std::vector<std::string>& warnings) {
+  std::string out = "[";
+  for (size_t i = 0; i < warnings.size(); ++i) out += (i ? ", " : "") + JsonString(warnings[i]);
+  return out + "]";
+}
+
+Status WriteTruthModels(const std::string& dir, const std::vector<TruthModel>& models) {
+  std::error_code ec;
+  std::filesystem::create_directories(dir + "/truths", ec);
+  if (ec) return Status::Error("cannot create " + dir + "/truths: " + ec.message());
+  for (const TruthModel& t : models) {
+    if (!t.problem.empty()) continue;
+    Status s = WriteFileAtomically(dir + "/truths/" + t.label + ".model.yaml", t.file_text);
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+// ---- end truth models ----
 
 Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
   for (const auto& [id, t] : truths.all()) {
@@ -187,14 +233,17 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
   o << "{\n  \"program\": \"locind\",\n  \"version\": \"" << kLocindVersion << "\",\n"
     << "  \"name\": " << JsonString(study.name) << ",\n  \"seed\": " << study.seed << ",\n"
     << "  \"streams\": \"every random stream is keyed by (seed, cell key, replicate, purpose); "
-       "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap; truths use the "
-       "key of 'truth hidden=<factor>' and the truth index as replicate\",\n"
+       "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap, 5 test draws; "
+       "data and test draws use the data key (the cell label without the level, so cells that differ "
+       "only in level share data); truths use the key of 'truth hidden=<factor>' (or "
+       "'truth hidden=fixed-observed') and the truth index as replicate\",\n"
     << "  \"truth\": " << TruthJson(study) << ",\n  \"process\": " << ProcessJson(study) << ",\n"
-    << "  \"replicates\": " << study.grid.replicates << ",\n  \"cells\": [";
+    << "  \"replicates\": " << study.grid.replicates << ",\n  \"hidden_mode\": \""
+    << (study.grid.hidden_fixed_observed ? "fixed-observed" : "fresh-truth") << "\",\n  \"cells\": [";
   for (size_t i = 0; i < cells.size(); ++i) {
     const Cell& c = cells[i];
     o << (i ? ",\n    " : "\n    ") << "{\"cell\": " << c.index << ", \"label\": " << JsonString(c.label)
-      << ", \"key\": " << c.key << ", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
+      << ", \"key\": " << c.key << ", \"data_key\": " << c.data_key << ", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
       << ", \"hidden_count\": " << c.hidden_count
       << ", \"stationarity_target\": " << OptionalNumber(c.stationarity) << "}";
   }
@@ -207,7 +256,10 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
     if (l.method == "penalized-fit") o << ", \"penalty\": " << Num(l.penalty > 0 ? l.penalty : 1);
     o << "}";
   }
-  o << "\n  ],\n  \"truths\": " << TruthsJson(truths) << "\n}\n";
+  o << "\n  ],\n  \"truths\": " << TruthsJson(truths);
+  const std::vector<TruthModel> models = TruthModels(study, cells, truths);
+  o << ",\n  \"truth_models\": " << TruthModelsJson(models)
+    << ",\n  \"rescale_warnings\": " << WarningsJson(RescaleWarnings(models)) << "\n}\n";
   return o.str();
 }
 
@@ -233,6 +285,8 @@ Status WriteResults(const std::string& dir, const StudySpec& study, const std::s
     Status s = WriteFileAtomically(dir + "/part.txt", part.Text() + "\n");
     if (!s.ok()) return s;
   }
+  Status models = WriteTruthModels(dir, TruthModels(study, cells, truths));
+  if (!models.ok()) return models;
   return WriteDrawings(dir, truths);
 }
 

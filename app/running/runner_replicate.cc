@@ -239,7 +239,7 @@ void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& tru
                 const Cell& cell, Simulated& data, ReplicateRow& row, UnitResult& out) {
   const Clock::time_point start = Clock::now();
   const uint64_t draws_seed = base::StreamSeed(
-      {seed, cell.key, static_cast<uint64_t>(row.replicate), kPurposeTestDraws});
+      {seed, cell.data_key, static_cast<uint64_t>(row.replicate), kPurposeTestDraws});
   auto test = MakeTest(spec, truth, data, draws_seed);
   if (auto* message = std::get_if<std::string>(&test)) {
     row.ok = false;
@@ -300,7 +300,7 @@ UnitResult RunUnit(const StudySpec& study, const Cell& cell, const StudyTruths& 
     failure = "truth class: " + truth.truth_class.status().message();
   } else {
     const Clock::time_point start = Clock::now();
-    base::RandomStream random(base::StreamKey{study.seed, cell.key, static_cast<uint64_t>(replicate),
+    base::RandomStream random(base::StreamKey{study.seed, cell.data_key, static_cast<uint64_t>(replicate),
                                                 kPurposeData});
     data = study.events ? SimulateEvents(study, truth, cell, random)
                         : SimulatePaths(study, truth, cell, random);

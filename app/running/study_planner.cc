@@ -30,35 +30,27 @@ double Round3(double x) {
 
 class LengthSearch {
  public:
-  LengthSearch(const StudySpec& study, int learner, const PlanTargets& targets, int threads,
-               const std::function<void(const std::string&)>& log)
-      : study_(study), learner_(learner), targets_(targets), threads_(threads), log_(log) {
-    hidden_ = study.grid.hidden_counts.empty() ? -1 : study.grid.hidden_counts.front();
-    if (!study.grid.stationarity.empty()) {
-      target_ = study.grid.stationarity.front();
-    } else {
-      target_ = study.events ? study.event_process.spectral_radius : study.path_process.drift_bound;
-    }
-    const Cell any = MakeCell(study, 1, study.grid.levels.front(), hidden_, target_);
-    truths_ = std::make_unique<StudyTruths>(study, std::vector<Cell>{any});
-  }
+  LengthSearch(const StudySpec& study, int learner, const PlanCombination& at, const StudyTruths& truths,
+               const PlanTargets& targets, int threads, const std::function<void(const std::string&)>& log)
+      : study_(study), learner_(learner), at_(at), truths_(truths), targets_(targets), threads_(threads),
+        log_(log) {}
 
   const PlanStep& Evaluate(double length) {
     auto it = steps_.find(length);
     if (it != steps_.end()) return it->second;
-    Cell cell = MakeCell(study_, length, study_.grid.levels.front(), hidden_, target_);
+    Cell cell = MakeCell(study_, length, at_.level, at_.hidden_factor, at_.stationarity);
     cell.index = 0;
     std::vector<Unit> units;
     for (int r = 0; r < study_.grid.replicates; ++r) units.push_back(Unit{0, r});
     std::map<int, ReplicateRow> rows;
-    RunUnits(study_, {cell}, *truths_, units, threads_,
+    RunUnits(study_, {cell}, truths_, units, threads_,
              [&rows](UnitResult u) { rows[u.unit.replicate] = u.rows.front(); }, nullptr, {learner_});
     std::vector<ReplicateRow> ordered;
     for (auto& [r, row] : rows) ordered.push_back(row);
     PlanStep step{length, SummarizeCell(study_, cell, learner_, ordered), false};
     step.meets = MeetsTargets(step.summary, targets_);
     if (log_) {
-      log_("plan: " + study_.learners[learner_].label + " at length " + Num(length) + ": power " +
+      log_("plan: " + study_.learners[learner_].label + Where() + " at length " + Num(length) + ": power " +
            IntervalText(step.summary.power) + ", false-edge rate " +
            IntervalText(step.summary.false_edge_rate) + (step.meets ? " (meets)" : ""));
     }
@@ -68,6 +60,7 @@ class LengthSearch {
   LearnerPlan Search() {
     LearnerPlan plan;
     plan.learner = study_.learners[learner_].label;
+    plan.at = at_;
     const double start = study_.plan.start > 0 ? study_.plan.start
                          : *std::min_element(study_.grid.lengths.begin(), study_.grid.lengths.end());
     plan.cap = study_.plan.cap > 0 ? study_.plan.cap
@@ -114,14 +107,18 @@ class LengthSearch {
     }
   }
 
+  // The combination in log lines, when the study has more than one.
+  std::string Where() const {
+    return PlanCombinations(study_).size() > 1 ? " (" + at_.Text() + ")" : "";
+  }
+
   const StudySpec& study_;
   int learner_;
+  PlanCombination at_;
+  const StudyTruths& truths_;
   PlanTargets targets_;
   int threads_;
   const std::function<void(const std::string&)>& log_;
-  int hidden_ = -1;
-  std::optional<double> target_;
-  std::unique_ptr<StudyTruths> truths_;
   std::map<double, PlanStep> steps_;
 };
 
@@ -132,20 +129,96 @@ bool MeetsTargets(const metrics::CellSummary& s, const PlanTargets& targets) {
   return s.totals.reported == 0 || s.false_edge_rate.estimate <= targets.false_edges + kSlack;
 }
 
+// ---- combinations of the other grid factors ----
+
+std::string PlanCombination::Text() const {
+  std::string text = "level " + Num(level);
+  if (hidden_factor >= 0) text += ", " + std::to_string(hidden_count) + " hidden";
+  if (stationarity) text += ", stationarity target " + Num(*stationarity);
+  return text;
+}
+
+std::vector<PlanCombination> PlanCombinations(const StudySpec& study) {
+  std::vector<PlanCombination> out;
+  // The grid's own cells at one length give every combination in grid order.
+  for (const Cell& c : ExpandGrid(study)) {
+    if (c.length != study.grid.lengths.front()) continue;
+    out.push_back(PlanCombination{c.hidden_factor, c.hidden_count, c.stationarity, c.level});
+  }
+  return out;
+}
+
+namespace {
+
+// Applies one "key=value" of a combination choice; false when it does not parse.
+bool Narrow(const std::string& item, std::vector<PlanCombination>& combos) {
+  const size_t eq = item.find('=');
+  if (eq == std::string::npos) return false;
+  const std::string key = item.substr(0, eq);
+  double value = 0;
+  try {
+    size_t used = 0;
+    value = std::stod(item.substr(eq + 1), &used);
+    if (used != item.size() - eq - 1) return false;
+  } catch (const std::exception&) {
+    return false;
+  }
+  std::vector<PlanCombination> kept;
+  for (const PlanCombination& c : combos) {
+    const bool match = key == "level"    ? c.level == value
+                       : key == "hidden" ? c.hidden_factor >= 0 && c.hidden_count == value
+                       : key == "target" ? c.stationarity && *c.stationarity == value
+                                         : false;
+    if (match) kept.push_back(c);
+  }
+  if (key != "level" && key != "hidden" && key != "target") return false;
+  combos = kept;
+  return true;
+}
+
+}  // namespace
+
+Result<std::vector<PlanCombination>> PickCombinations(const StudySpec& study, const std::string& choice) {
+  const std::vector<PlanCombination> all = PlanCombinations(study);
+  std::vector<PlanCombination> combos = all;
+  std::string text = choice;
+  std::replace(text.begin(), text.end(), ',', ' ');
+  std::istringstream items(text);
+  std::string list;
+  for (const PlanCombination& c : all) list += (list.empty() ? "" : "; ") + c.Text();
+  for (std::string item; items >> item;) {
+    if (!Narrow(item, combos)) {
+      return Status::Error("cannot read '" + item + "' (expected hidden=N, target=X or level=X)");
+    }
+  }
+  if (combos.empty()) return Status::Error("no combination of the study matches '" + choice + "' (the study has: " + list + ")");
+  return combos;
+}
+
 std::vector<LearnerPlan> PlanLengths(const StudySpec& study, const PlanTargets& targets, int threads,
-                                     const std::function<void(const std::string&)>& log) {
+                                     const std::function<void(const std::string&)>& log,
+                                     const std::vector<PlanCombination>& combinations) {
+  const std::vector<PlanCombination> combos = combinations.empty() ? PlanCombinations(study) : combinations;
   std::vector<LearnerPlan> plans;
-  for (size_t l = 0; l < study.learners.size(); ++l) {
-    plans.push_back(LengthSearch(study, static_cast<int>(l), targets, threads, log).Search());
+  for (const PlanCombination& at : combos) {
+    // Truths depend on the hidden count only; drawn once per combination.
+    const StudyTruths truths(study, {MakeCell(study, 1, at.level, at.hidden_factor, at.stationarity)});
+    for (size_t l = 0; l < study.learners.size(); ++l) {
+      plans.push_back(LengthSearch(study, static_cast<int>(l), at, truths, targets, threads, log).Search());
+    }
   }
   return plans;
 }
+
+// ---- end combinations ----
 
 std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets& targets) {
   std::ostringstream out;
   out << "targets: power >= " << Num(targets.power) << ", false-edge rate <= " << Num(targets.false_edges)
       << "\n";
-  for (const LearnerPlan& p : plans) {
+  for (size_t i = 0; i < plans.size(); ++i) {
+    const LearnerPlan& p = plans[i];
+    if (i == 0 || plans[i - 1].at.Text() != p.at.Text()) out << "at " << p.at.Text() << ":\n";
     if (!p.reached) {
       const PlanStep& best = *std::max_element(p.steps.begin(), p.steps.end(), [](const PlanStep& a, const PlanStep& b) {
         return a.summary.power.estimate < b.summary.power.estimate;
@@ -169,7 +242,7 @@ std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets&
 const std::string& PlanHeader() {
   static const std::string header =
       "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
-      "conservative_length,cap";
+      "conservative_length,cap,level,hidden_count,stationarity_target";
   return header;
 }
 
@@ -178,7 +251,8 @@ std::string PlanCsv(const std::vector<LearnerPlan>& plans, const PlanTargets& ta
   for (const LearnerPlan& p : plans) {
     out += CleanText(p.learner) + "," + Num(targets.power) + "," + Num(targets.false_edges) + "," +
            (p.reached ? "yes" : "no") + "," + (p.reached ? Num(p.length) : "") + "," + Num(p.optimistic) +
-           "," + Num(p.conservative) + "," + Num(p.cap) + "\n";
+           "," + Num(p.conservative) + "," + Num(p.cap) + "," + Num(p.at.level) + "," +
+           std::to_string(p.at.hidden_count) + "," + (p.at.stationarity ? Num(*p.at.stationarity) : "") + "\n";
   }
   return out;
 }

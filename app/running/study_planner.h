@@ -1,8 +1,9 @@
 // The planner: for each learner, the smallest observation length at which
 // the pooled power reaches a target and the false-edge rate stays below one.
 //
-// Adaptive search per learner, on the first value of every other grid factor
-// (level, hidden count, stationarity target): start at plan.start (default
+// Adaptive search per learner and per combination of the other grid factors
+// (hidden count, stationarity target, level; every combination, or those a
+// caller picks): start at plan.start (default
 // the smallest grid length) and double until both targets are met or the cap
 // (plan.cap, default 64 x the largest grid length) is passed; then bisect
 // between the last length that failed and the first that met the targets,
@@ -24,13 +25,33 @@
 
 #include <cmath>
 #include <functional>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "app/study/study_spec.h"
+#include "base/status.h"
 #include "metrics/cell_summary.h"
 
 namespace locind::app {
+
+// One combination of the grid factors other than length.
+struct PlanCombination {
+  int hidden_factor = -1;  // grid hidden-count value; -1: no such factor
+  int hidden_count = 0;    // hidden processes of the truths
+  std::optional<double> stationarity;
+  double level = 0.05;
+  // "level 0.05, 2 hidden, stationarity target 0.6" (factors absent from the grid left out, except level)
+  std::string Text() const;
+};
+
+// Every combination, in grid order (hidden count, target, level).
+std::vector<PlanCombination> PlanCombinations(const StudySpec& study);
+
+// The combinations matching `choice` ("hidden=2 target=0.6 level=0.05", any
+// subset, separated by spaces or commas; empty: all). An error names the
+// problem and lists the combinations.
+Result<std::vector<PlanCombination>> PickCombinations(const StudySpec& study, const std::string& choice);
 
 struct PlanTargets {
   double power = 0.8;
@@ -45,6 +66,7 @@ struct PlanStep {
 
 struct LearnerPlan {
   std::string learner;
+  PlanCombination at;
   bool reached = false;
   double length = 0;          // when reached
   double optimistic = NAN;
@@ -56,12 +78,14 @@ struct LearnerPlan {
 // Point estimates meet both targets (no reported edge counts as no false edge).
 bool MeetsTargets(const metrics::CellSummary& s, const PlanTargets& targets);
 
-// `log` (may be empty) receives one line per evaluated length.
+// `log` (may be empty) receives one line per evaluated length. One plan per
+// combination and learner (combination-major); `combinations` empty: all.
 std::vector<LearnerPlan> PlanLengths(const StudySpec& study, const PlanTargets& targets, int threads,
-                                     const std::function<void(const std::string&)>& log);
+                                     const std::function<void(const std::string&)>& log,
+                                     const std::vector<PlanCombination>& combinations = {});
 
-// Plain text: a table of the learners that reached the targets, and one
-// plain sentence for each that did not.
+// Plain text: per combination (a heading line naming it), a line for each
+// learner that reached the targets, and one plain sentence for each that did not.
 std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets& targets);
 
 // plan.csv (header and one line per learner; columns in results/README.md),

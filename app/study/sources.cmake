@@ -8,4 +8,5 @@ locind_layer(locind_study
     app/study/study_truths.cc
     app/study/test_choice.cc
     app/study/truth_drawings.cc
+    app/study/truth_models.cc
 )

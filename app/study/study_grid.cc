@@ -30,10 +30,13 @@ Cell MakeCell(const StudySpec& study, double length, double level, int hidden_fa
     c.hidden_count = static_cast<int>(study.truth.explicit_graph.hidden.size());
   }
   c.stationarity = stationarity;
-  c.label = "length=" + base::FormatNumber(length) + " level=" + base::FormatNumber(level);
-  if (hidden_factor >= 0) c.label += " hidden=" + std::to_string(hidden_factor);
-  if (stationarity) c.label += " target=" + base::FormatNumber(*stationarity);
+  std::string rest;
+  if (hidden_factor >= 0) rest += " hidden=" + std::to_string(hidden_factor);
+  if (stationarity) rest += " target=" + base::FormatNumber(*stationarity);
+  c.label = "length=" + base::FormatNumber(length) + " level=" + base::FormatNumber(level) + rest;
   c.key = base::HashText(c.label);
+  // Paired levels: the level is left out of the data key.
+  c.data_key = base::HashText("data length=" + base::FormatNumber(length) + rest);
   return c;
 }
 

@@ -5,9 +5,12 @@
 // Random streams are keyed by (study seed, cell key, replicate, purpose).
 // A cell's key is a hash of its canonical label ("length=200 level=0.05 ..."),
 // not of its position, so a cell draws the same data whatever else the grid
-// holds (and `locind plan` can reach any length). Truths are keyed by the
-// hidden-count factor and the truth index, so every cell with the same truth
-// factor sees the same truths.
+// holds (and `locind plan` can reach any length). The data (and a test's own
+// Monte Carlo draws) use the data key, a hash of the label without the
+// level: cells that differ only in level share their data, so comparisons
+// between levels are paired. Truths are keyed by the hidden-count factor and
+// the truth index, so every cell with the same truth factor sees the same
+// truths (under hidden_mode fixed-observed one key serves every count).
 #pragma once
 
 #include <cstdint>
@@ -36,7 +39,8 @@ struct Cell {
   int hidden_count = 0;                // hidden processes of the cell's truths
   std::optional<double> stationarity;  // spectral radius or drift bound target, if any
   std::string label;
-  uint64_t key = 0;
+  uint64_t key = 0;       // hash of label: summaries
+  uint64_t data_key = 0;  // hash of label without the level: data and test draws
 };
 
 // Cells in grid order: hidden count, then stationarity target, then level,

@@ -42,6 +42,10 @@ struct EventProcessSpec {
   // When set, K is multiplied by a constant so its spectral radius equals
   // this value (0 < value < 1).
   std::optional<double> spectral_radius;
+  // rescale: both: every draw is rescaled to the target (up or down); down
+  // (the default): only a draw whose radius exceeds the target is scaled
+  // down to it, so a stable draw keeps its configured weights.
+  bool rescale_both = false;
   double burn_in = 50;
   int64_t event_cap = 5'000'000;
 };
@@ -59,6 +63,10 @@ struct PathProcessSpec {
   // When set (< 0), M is multiplied by a positive constant so the largest real
   // part of its eigenvalues equals this value (linear drift only).
   std::optional<double> drift_bound;
+  // rescale: both: every draw is rescaled to drift_bound; down (the
+  // default): only a draw whose largest real part exceeds the bound (is less
+  // stable than asked) is rescaled, moving that value down to the bound.
+  bool rescale_both = false;
 };
 
 struct LearnerSpec {
@@ -73,6 +81,13 @@ struct GridSpec {
   std::vector<double> lengths;
   std::vector<double> levels{0.05};
   std::vector<int> hidden_counts;        // random truths only; empty: the truth's own
+  // hidden_mode under a hidden-count factor. fresh-truth (false, the
+  // default): each count draws its own truths on truth.random.nodes nodes,
+  // hidden ones included. fixed-observed (true): one truth on
+  // truth.random.nodes observed + max(hidden_counts) hidden nodes; count h
+  // keeps the observed nodes and the first h hidden ones (the rest are left
+  // out of the system), so every count has the same observed processes.
+  bool hidden_fixed_observed = false;
   std::vector<double> stationarity;      // spectral radius or drift bound targets; empty: the process's own
   int replicates = 10;
 };

@@ -8,6 +8,8 @@
 #include <filesystem>
 #include <fstream>
 
+#include <unistd.h>
+
 #include "app/results/results_rows.h"
 #include "app/running/study_planner.h"
 
@@ -16,9 +18,13 @@ namespace {
 
 namespace fs = std::filesystem;
 
+// A result folder of its own per test process and test case: ctest runs the
+// test cases of this file as parallel processes.
 struct Folder {
-  fs::path dir = fs::temp_directory_path() / "locind_report_data_test";
-  Folder() {
+  fs::path dir;
+  explicit Folder(const std::string& test)
+      : dir(fs::temp_directory_path() /
+            ("locind_report_data_test_" + std::to_string(::getpid()) + "_" + test)) {
     fs::remove_all(dir);
     fs::create_directories(dir);
     Write("summary.csv", SummaryHeader() + "\n" +
@@ -39,7 +45,7 @@ struct Folder {
 };
 
 TEST_CASE("the files of a result folder read back by column name") {
-  Folder f;
+  Folder f("read_back");
   const Result<ReportData> d = ReadReportData(f.dir.string());
   REQUIRE_MESSAGE(d.ok(), (d.ok() ? "" : d.status().message()));
   REQUIRE(d->summary.size() == 1);
@@ -74,7 +80,7 @@ TEST_CASE("the files of a result folder read back by column name") {
 }
 
 TEST_CASE("plan.csv is read when present") {
-  Folder f;
+  Folder f("plan");
   LearnerPlan reached;
   reached.learner = "pairwise/hawkes-lr";
   reached.reached = true;
@@ -94,8 +100,41 @@ TEST_CASE("plan.csv is read when present") {
   CHECK(std::isnan(d->plan[1].length));
 }
 
+TEST_CASE("each plan.csv row names its combination and fits only that panel") {
+  Folder f("combination");
+  LearnerPlan one;
+  one.learner = "pairwise/hawkes-lr";
+  one.reached = true;
+  one.length = 750;
+  one.at = PlanCombination{2, 2, 0.6, 0.05};
+  LearnerPlan other = one;
+  other.at = PlanCombination{-1, 1, std::nullopt, 0.2};
+  f.Write("plan.csv", PlanCsv({one, other}, PlanTargets{0.8, 0.05}));
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE(d.ok());
+  REQUIRE(d->plan.size() == 2);
+  CHECK(*d->plan[0].level == 0.05);
+  CHECK(*d->plan[0].hidden_count == 2);
+  CHECK(*d->plan[0].stationarity_target == 0.6);
+  CHECK_FALSE(d->plan[1].stationarity_target);
+  CHECK(d->plan[0].Fits(0.05, 2, 0.6));
+  CHECK_FALSE(d->plan[0].Fits(0.05, 1, 0.6));      // another hidden count
+  CHECK_FALSE(d->plan[0].Fits(0.2, 2, 0.6));       // another level
+  CHECK_FALSE(d->plan[0].Fits(0.05, 2, 0.4));      // another target
+  CHECK_FALSE(d->plan[0].Fits(0.05, 2, std::nullopt));
+  CHECK(d->plan[1].Fits(0.2, 1, std::nullopt));
+  CHECK_FALSE(d->plan[1].Fits(0.2, 1, 0.6));
+  // A plan.csv from before the combination columns fits every panel.
+  f.Write("plan.csv", "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
+                      "conservative_length,cap\npairwise/hawkes-lr,0.8,0.05,yes,750,,,16000\n");
+  const Result<ReportData> old = ReadReportData(f.dir.string());
+  REQUIRE(old.ok());
+  CHECK_FALSE(old->plan[0].level);
+  CHECK(old->plan[0].Fits(0.2, 3, 0.5));
+}
+
 TEST_CASE("missing files, ragged rows and bad numbers name file, line, column and field") {
-  Folder f;
+  Folder f("problems");
   fs::remove(f.dir / "null_tests.csv");
   Result<ReportData> d = ReadReportData(f.dir.string());
   REQUIRE_FALSE(d.ok());

@@ -5,10 +5,13 @@
 
 #include <filesystem>
 #include <fstream>
+#include <string>
+
+#include <unistd.h>
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_file.h"
 #include "app/study/study_grid.h"
 
@@ -17,8 +20,8 @@ namespace {
 
 std::vector<std::string> Messages(const StudyOrErrors& read) {
   std::vector<std::string> out;
-  if (const auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) out.push_back(e.ToString());
+  if (const auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) out.push_back(e.ToString());
   }
   return out;
 }
@@ -57,9 +60,11 @@ TEST_CASE("configs/demo_diffusion.yaml: random truths, paths, a hidden-count fac
   const StudySpec& s = std::get<StudySpec>(read);
   CHECK_FALSE(s.events);
   CHECK(s.truth.random);
-  CHECK(s.truth.random_graph.nodes == 5);
+  CHECK(s.truth.random_graph.nodes == 4);  // observed; the hidden one comes on top
   CHECK(s.truth.random_graph.expected_in_degree == 1.2);
   CHECK(s.grid.hidden_counts == std::vector<int>{0, 1});
+  CHECK(s.grid.hidden_fixed_observed);
+  CHECK_FALSE(s.path_process.rescale_both);  // rescale: down by default
   const std::vector<Cell> cells = ExpandGrid(s);
   REQUIRE(cells.size() == 6);  // 2 hidden counts x 3 lengths, length fastest
   CHECK(cells[0].hidden_count == 0);
@@ -195,7 +200,8 @@ TEST_CASE("an explicit event truth must be stationary at the upper ends of its w
 }
 
 TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output folder") {
-  const std::filesystem::path dir = std::filesystem::temp_directory_path() / "locind_study_file_test";
+  const std::filesystem::path dir = std::filesystem::temp_directory_path() /
+                                    ("locind_study_file_test_" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
   std::filesystem::create_directories(dir);
   const std::string study = (dir / "bad.yaml").string();
@@ -212,6 +218,62 @@ TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output fo
   CHECK_FALSE(std::filesystem::exists(results));
   std::filesystem::remove_all(dir);
 }
+
+// ---- study designs: rescale, hidden_mode ----
+
+TEST_CASE("rescale is down by default and both on request") {
+  const std::string head = "truth: {nodes: [a, b], edges: [a -> b]}\n";
+  const std::string tail = "grid: {lengths: [10]}\nlearners: [{method: pairwise, test: oracle}]\n";
+  const StudyOrErrors plain = ParseStudyText(head + "process: {events: {spectral_radius: 0.5}}\n" + tail, "r.yaml");
+  REQUIRE(Messages(plain).empty());
+  CHECK_FALSE(std::get<StudySpec>(plain).event_process.rescale_both);
+  const StudyOrErrors both =
+      ParseStudyText(head + "process: {events: {spectral_radius: 0.5, rescale: both}}\n" + tail, "r.yaml");
+  REQUIRE(Messages(both).empty());
+  CHECK(std::get<StudySpec>(both).event_process.rescale_both);
+  const auto m = Messages(ParseStudyText(head + "process: {events: {rescale: up}}\n" + tail, "r.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0] == "r.yaml:2:29: process.events.rescale: expected one of: both, down");
+}
+
+TEST_CASE("grid.hidden with truth.random.hidden is an error naming both places") {
+  const std::string text =
+      "truth:\n"                                             // 1
+      "  random: {nodes: 5, hidden: 1}\n"                    // 2: the count at column 30
+      "process: {events: {}}\n"                              // 3
+      "grid: {lengths: [10], hidden: [1, 2]}\n"              // 4: the list at column 31
+      "learners: [{method: pairwise, test: oracle}]\n";      // 5
+  const auto m = Messages(ParseStudyText(text, "h.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0] ==
+        "h.yaml:4:31: grid.hidden: the hidden-count factor replaces truth.random.hidden (given at "
+        "h.yaml:2:30); give one of the two");
+  std::ostringstream out, err;
+  std::ofstream("designs_hidden_both.yaml") << text;
+  CHECK(RunRunCommand({"designs_hidden_both.yaml", "--out", "designs_hidden_both_out"}, out, err) ==
+        kExitInputError);
+  CHECK(err.str().find("designs_hidden_both.yaml:4:31: grid.hidden:") != std::string::npos);
+  std::filesystem::remove("designs_hidden_both.yaml");
+}
+
+TEST_CASE("hidden_mode fixed-observed counts random.nodes as observed and needs grid.hidden") {
+  const std::string head = "truth: {random: {nodes: 62}}\nprocess: {events: {}}\n";
+  const std::string learners = "learners: [{method: pairwise, test: oracle}]\n";
+  const StudyOrErrors fixed =
+      ParseStudyText(head + "grid: {lengths: [10], hidden: [0, 2], hidden_mode: fixed-observed}\n" + learners, "f.yaml");
+  REQUIRE(Messages(fixed).empty());
+  CHECK(std::get<StudySpec>(fixed).grid.hidden_fixed_observed);
+  // 62 observed + 3 hidden would pass the 64-node limit.
+  auto m = Messages(
+      ParseStudyText(head + "grid: {lengths: [10], hidden: [3], hidden_mode: fixed-observed}\n" + learners, "f.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0] == "f.yaml:3:32: grid.hidden: expected whole numbers in [0, 2]");
+  m = Messages(ParseStudyText(head + "grid: {lengths: [10], hidden_mode: fixed-observed}\n" + learners, "f.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0] == "f.yaml:3:36: grid.hidden_mode: applies to a hidden-count factor (grid.hidden)");
+}
+
+// ---- end study designs ----
 
 }  // namespace
 }  // namespace locind::app

@@ -1,0 +1,83 @@
+// One replicate of a cell: cells that differ only in level run on the same
+// simulated data (paired levels), so the same tests give the same p-values
+// and only the decisions differ.
+#include <doctest/doctest.h>
+
+#include <map>
+#include <sstream>
+
+#include "app/io/error.h"
+#include "tests/app/run_folders.h"
+
+namespace locind::app {
+namespace {
+
+using namespace locind::testing;
+using Row = std::map<std::string, std::string>;
+
+// The rows of a CSV file (no quoting in result files), by column name.
+std::vector<Row> ReadRows(const fs::path& p) {
+  std::istringstream in(ReadAll(p));
+  std::vector<std::string> header;
+  std::vector<Row> rows;
+  for (std::string line; std::getline(in, line);) {
+    std::vector<std::string> fields;
+    std::stringstream s(line);
+    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
+    if (!line.empty() && line.back() == ',') fields.push_back("");
+    if (header.empty()) {
+      header = fields;
+      continue;
+    }
+    REQUIRE(fields.size() == header.size());
+    Row r;
+    for (size_t i = 0; i < header.size(); ++i) r[header[i]] = fields[i];
+    rows.push_back(std::move(r));
+  }
+  return rows;
+}
+
+TEST_CASE("two levels in one study share data and p-values and differ only in decisions") {
+  Scratch s("locind_runner_replicate_test_paired");
+  std::string text = kTinyStudy;
+  text.replace(text.find("replicates: 4"), 13, "replicates: 4\n  levels: [0.01, 0.3]");
+  const std::string study = s.Write("paired.yaml", text);
+  REQUIRE(Run({study, "--out", s.Path("out")}) == kExitOk);
+  // Grid order: level, then length (fastest): cells 0, 1 at level 0.01 and
+  // 2, 3 at level 0.3, lengths 150 and 300 in each.
+  std::map<std::string, std::string> points;  // "length replicate learner" -> observed_points
+  int compared = 0;
+  for (const Row& r : ReadRows(s.dir / "out" / "replicates.csv")) {
+    const std::string key = r.at("length") + " " + r.at("replicate") + " " + r.at("learner");
+    auto [it, fresh] = points.emplace(key, r.at("observed_points"));
+    if (!fresh) {
+      CHECK(it->second == r.at("observed_points"));
+      ++compared;
+    }
+  }
+  CHECK(compared == 2 * 4 * 3);  // 2 lengths x 4 replicates x 3 learners, each seen at both levels
+
+  std::map<std::string, std::string> p_values;  // "cell%2 replicate edge" -> p-value
+  int same = 0, dependent_low = 0, dependent_high = 0;
+  for (const Row& r : ReadRows(s.dir / "out" / "edges.csv")) {
+    if (r.at("learner") != "pairwise/hawkes-lr" || r.at("test_status") != "ok") continue;
+    const int cell = std::stoi(r.at("cell"));
+    const double level = cell < 2 ? 0.01 : 0.3;
+    const double p = std::stod(r.at("test_p_value"));
+    // The decision rule of learners/methods/test_runner.cc: dependent when p <= level.
+    CHECK((r.at("test_decision") == "dependent") == (p <= level));
+    (cell < 2 ? dependent_low : dependent_high) += r.at("test_decision") == "dependent";
+    const std::string key = std::to_string(cell % 2) + " " + r.at("replicate") + " " + r.at("edge");
+    auto [it, fresh] = p_values.emplace(key, r.at("test_p_value"));
+    if (!fresh) {
+      CHECK(it->second == r.at("test_p_value"));
+      ++same;
+    }
+  }
+  CHECK(same > 0);
+  // Same p-values: the larger level rejects at least wherever the smaller does.
+  CHECK(dependent_high >= dependent_low);
+}
+
+}  // namespace
+}  // namespace locind::app
