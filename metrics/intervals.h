@@ -7,6 +7,10 @@
 //    Introduction to the Bootstrap, ch. 13): used for Hamming distance, tests
 //    made and seconds. Resamples are drawn from a RandomStream keyed by the
 //    caller, so intervals are reproducible.
+//  - Two-stage (cluster) bootstrap for a ratio estimator over replicates
+//    nested in truths (Davison & Hinkley 1997, Bootstrap Methods and their
+//    Application, sec. 3.8, "Hierarchical data"): used by the study summary
+//    for every rate and mean (metrics/cell_summary.h says why).
 #pragma once
 
 #include <cstdint>
@@ -40,5 +44,24 @@ Interval BootstrapMeanInterval(const std::vector<double>& values, int resamples,
 // of true-null tests (calibration.csv). No trials: all three NaN.
 // REQUIRES: 0 <= successes <= trials; 0 < confidence < 1.
 Interval ClopperPearsonInterval(int64_t successes, int64_t trials, double confidence = 0.95);
+
+// One replicate's share of a ratio estimator sum(numerator) / sum(denominator),
+// and the cluster (truth) it belongs to. A mean is the ratio with
+// denominator 1 for every replicate.
+struct ClusteredValue {
+  int cluster = 0;
+  double numerator = 0;
+  double denominator = 1;
+};
+
+// Ratio sum(numerator) / sum(denominator) with a two-stage percentile
+// bootstrap interval: each resample draws as many clusters as there are, with
+// replacement, then within each drawn cluster as many of its values as it
+// has, with replacement. Resamples whose denominator sums to 0 are left out.
+// The estimate is NaN when the denominators sum to 0; low and high are NaN
+// when no resample is defined. When every resample gives the same ratio (all
+// values agree) the interval has zero width, however few clusters there are.
+Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int resamples,
+                                base::RandomStream& random, double confidence = 0.95);
 
 }  // namespace locind::metrics

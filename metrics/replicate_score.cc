@@ -1,5 +1,6 @@
 #include "metrics/replicate_score.h"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -73,15 +74,30 @@ EdgeCounts& EdgeCounts::operator+=(const EdgeCounts& o) {
 ReplicateScore ScoreGraph(const TruthClass& truth_class, const graph::Dmg& learned) {
   ReplicateScore s;
   for (const Edge& e : PossibleEdges(learned.size())) {
-    const TruthStatus truth = truth_class.StatusOf(e);
-    const bool reported = graph::HasEdge(learned, e);
-    Count(s.by_group[static_cast<int>(GroupOf(e))], truth, reported);
-    if (reported != (truth != TruthStatus::kAbsent)) ++s.hamming;
+    Count(s.by_group[static_cast<int>(GroupOf(e))], truth_class.StatusOf(e), graph::HasEdge(learned, e));
   }
   for (const EdgeCounts& c : s.by_group) s.total += c;
   s.power = Ratio(s.total.solid_found, s.total.solid);
   s.false_edge_rate = Ratio(s.total.false_edges, s.total.reported);
+  // Dashed edges are never scored (results/README.md): only missed solid edges
+  // and edges outside N are errors.
+  s.hamming = s.total.missed_solid + s.total.false_edges;
   s.class_recovered = s.hamming == 0;
+  return s;
+}
+
+ReplicateScore ScoreGraph(const TruthClass& truth_class, const graph::Dmg& learned,
+                          const std::vector<Edge>& learner_dashed) {
+  ReplicateScore s = ScoreGraph(truth_class, learned);
+  for (const Edge& e : PossibleEdges(learned.size())) {
+    const TruthStatus truth = truth_class.StatusOf(e);
+    if (truth == TruthStatus::kAbsent || !graph::HasEdge(learned, e)) continue;
+    const bool marked_dashed =
+        std::find(learner_dashed.begin(), learner_dashed.end(), e) != learner_dashed.end();
+    ++s.marks_compared;
+    if (marked_dashed == (truth == TruthStatus::kDashed)) ++s.marks_agree;
+  }
+  s.mark_agreement = Ratio(s.marks_agree, s.marks_compared);
   return s;
 }
 

@@ -9,12 +9,22 @@
 //   dashed        dashed edges of N; dashed_found of those reported
 //                 (undetermined: reported apart, never in power or errors)
 // Power = solid_found / solid (NaN when solid = 0); false-edge rate =
-// false_edges / reported (NaN when nothing is reported); structural Hamming
-// distance to N = edges of N not reported + reported edges not in N;
-// class_recovered: the learned graph equals N exactly.
+// false_edges / reported (NaN when nothing is reported).
+//
+// One definition for the distances, following "dashed edges are never
+// scored": structural Hamming distance = missed_solid + false_edges (a
+// missed dashed edge is no error, a reported dashed edge is not false);
+// class_recovered: that distance is 0, i.e. every solid edge of N reported
+// and no edge outside N (dashed edges free either way).
+//
+// Marks: when the learner marks its edges solid/dashed, marks_compared =
+// reported edges that are in N, marks_agree = those whose learner mark equals
+// their mark in the class; mark_agreement = marks_agree / marks_compared
+// (NaN when nothing is compared or the learner has no marks).
 #pragma once
 
 #include <array>
+#include <limits>
 #include <vector>
 
 #include "graph/dmg.h"
@@ -49,6 +59,9 @@ struct ReplicateScore {
   double false_edge_rate = 0;  // NaN when total.reported == 0
   int hamming = 0;
   bool class_recovered = false;
+  int marks_compared = 0;
+  int marks_agree = 0;
+  double mark_agreement = std::numeric_limits<double>::quiet_NaN();
 };
 
 // One row of the edge audit: an edge reported by the learner or solid in
@@ -60,7 +73,12 @@ struct EdgeAudit {
 };
 
 // REQUIRES: learned has the observed names of truth_class.projected, in order.
+// Without marks (mark counts 0, mark_agreement NaN).
 ReplicateScore ScoreGraph(const TruthClass& truth_class, const graph::Dmg& learned);
+// With the learner's marks: `learner_dashed` lists the reported edges it
+// marked dashed; every other reported edge counts as marked solid.
+ReplicateScore ScoreGraph(const TruthClass& truth_class, const graph::Dmg& learned,
+                          const std::vector<graph::Edge>& learner_dashed);
 
 // Rows for every edge that is reported or solid in the truth, in ListEdges
 // order of the union.

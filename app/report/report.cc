@@ -156,6 +156,73 @@ ReportFigure PlotFigure(const std::string& id, const std::string& title, const s
   return {id, title, caption, Renderer::kGnuplot, LinePlotScript(plot), ""};
 }
 
+// Design-aware scoring block: power ceilings and one power panel per edge group.
+
+// Each learner's power ceiling where it is below 1 (the first defined value
+// over the lengths: it depends on the truths only).
+std::vector<std::pair<int, double>> Ceilings(const StudySpec& study, const std::vector<const SummaryLine*>& lines) {
+  std::vector<std::pair<int, double>> out;
+  for (const LearnerSpec& l : study.learners) {
+    for (const SummaryLine* line : lines) {
+      if (line->learner != l.label || std::isnan(line->power_ceiling)) continue;
+      if (line->power_ceiling < 1) out.push_back({StyleOf(study, l.label), line->power_ceiling});
+      break;
+    }
+  }
+  return out;
+}
+
+std::vector<PlotSeries> GroupSeries(const StudySpec& study, const std::vector<const SummaryLine*>& lines, int g) {
+  std::vector<PlotSeries> series;
+  for (const LearnerSpec& l : study.learners) {
+    PlotSeries s{l.label, StyleOf(study, l.label), {}};
+    for (const SummaryLine* line : lines) {
+      const metrics::Interval& v = line->group_power[g];
+      if (line->learner != l.label || !line->reports[g] || std::isnan(v.estimate)) continue;
+      s.points.push_back({line->length, v.estimate, v.low, v.high});
+    }
+    std::sort(s.points.begin(), s.points.end(), [](const PlotPoint& a, const PlotPoint& b) { return a.x < b.x; });
+    series.push_back(std::move(s));
+  }
+  return series;
+}
+
+// Solid edges of the group summed over the lines of one learner (the first
+// learner's count: every learner sees the same truths).
+int GroupSolid(const std::vector<const SummaryLine*>& lines, int g) {
+  int solid = 0;
+  for (const SummaryLine* line : lines) solid = std::max(solid, line->group_solid[g]);
+  return solid;
+}
+
+void AddGroupFigures(const StudySpec& study, const GroupKey& group, const std::vector<const SummaryLine*>& lines,
+                     const std::string& suffix, ReportSection& section) {
+  for (int g = 0; g < metrics::kEdgeGroups; ++g) {
+    if (GroupSolid(lines, g) == 0) continue;  // no solid edge of this group: power undefined
+    const std::string name = metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g));
+    LinePlot plot;
+    plot.title = "Power, " + name + " edges, " + GroupText(group);
+    plot.y_label = "power (solid " + name + " edges found)";
+    plot.unit_range = true;
+    plot.series = GroupSeries(study, lines, g);
+    std::string cannot;
+    for (const LearnerSpec& l : study.learners) {
+      auto it = std::find_if(lines.begin(), lines.end(), [&l](const SummaryLine* x) { return x->learner == l.label; });
+      if (it == lines.end() || (*it)->reports[g]) continue;
+      plot.ceilings.push_back({StyleOf(study, l.label), 0.0});
+      cannot += (cannot.empty() ? "" : ", ") + l.label;
+    }
+    section.figures.push_back(PlotFigure(
+        "power-" + name + suffix, "Power on " + name + " edges (" + GroupText(group) + ")",
+        "Share of the solid " + name + " edges of N that were reported, pooled over replicates; bands are 95% "
+        "cluster-bootstrap intervals." +
+            (cannot.empty() ? std::string()
+                            : " Cannot report " + name + " edges at all (dash-dot line at 0, no curve): " +
+                                  cannot + "."),
+        plot));
+  }
+}
+
 void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupKey& group,
                     const std::vector<const SummaryLine*>& lines, const std::string& suffix,
                     ReportSection& section) {
@@ -164,7 +231,9 @@ void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupK
   power.y_label = "power (solid edges of N found)";
   power.unit_range = true;
   power.series = SeriesOf(study, lines, &SummaryLine::power);
+  power.ceilings = Ceilings(study, lines);
   LinePlot false_edges = power;
+  false_edges.ceilings.clear();
   false_edges.title = "False-edge rate, " + GroupText(group);
   false_edges.y_label = "false-edge rate (reported edges not in N)";
   false_edges.series = SeriesOf(study, lines, &SummaryLine::false_edge_rate);
@@ -183,12 +252,15 @@ void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupK
                                                          "this panel's combination (none: not planned).";
   section.figures.push_back(PlotFigure(
       "power" + suffix, "Power against observation length (" + GroupText(group) + ")",
-      "Share of the solid edges of the maximal graph N that were reported, pooled over replicates; bands "
-      "are Wilson 95% intervals." + plan_note, power));
+      "Share of the solid edges of the maximal graph N that were reported, pooled over replicates and "
+      "edge groups; bands are 95% cluster-bootstrap intervals (truths, then replicates within truths). "
+      "Dash-dot lines: a method's ceiling, the share of solid edges in the groups it can report at all "
+      "(drawn when below 1)." + plan_note, power));
   section.figures.push_back(PlotFigure(
       "false-edges" + suffix, "False-edge rate against observation length (" + GroupText(group) + ")",
       "Share of reported edges that are not in N (no graph equivalent to the truth has them); bands are "
-      "Wilson 95% intervals. Undefined where nothing was reported." + plan_note, false_edges));
+      "95% cluster-bootstrap intervals. Undefined where nothing was reported." + plan_note, false_edges));
+  AddGroupFigures(study, group, lines, suffix, section);
 }
 
 void AddCostFigures(const StudySpec& study, const GroupKey& group, const std::vector<const SummaryLine*>& lines,
@@ -210,6 +282,25 @@ void AddCostFigures(const StudySpec& study, const GroupKey& group, const std::ve
       "seconds" + suffix, "Learner time (" + GroupText(group) + ")",
       "Mean wall-clock seconds of each learner per replicate, log scale, with percentile-bootstrap 95% "
       "intervals. Times depend on the machine and its load; compare learners within one run.", seconds));
+}
+
+// How many truths stand behind the intervals, and what that means.
+std::string TruthsNote(const ReportData& data) {
+  int fewest = 0, most = 0;
+  for (const SummaryLine& s : data.summary) {
+    if (s.truths == 0) continue;
+    fewest = fewest == 0 ? s.truths : std::min(fewest, s.truths);
+    most = std::max(most, s.truths);
+  }
+  if (most == 0) return "";
+  const std::string count = fewest == most ? std::to_string(most) : std::to_string(fewest) + " to " + std::to_string(most);
+  std::string note = " Intervals resample truths, then replicates within truths; " + count +
+                     " truth(s) stand behind each.";
+  if (fewest < 5) {
+    note += " With fewer than 5 truths the intervals show little of the variation between truths: read them "
+            "as conditional on the truths drawn (a zero-width interval means every replicate gave that value).";
+  }
+  return note;
 }
 
 // File-name-safe form of a label.
@@ -400,7 +491,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   page.caution = ReportCaution();
   page.summary = data.summary;
   ReportSection rates{"rates", "Power and false edges", "Scored against the maximal graph N of each truth's "
-                      "class: a learner can at best report N.", {}};
+                      "class: a learner can at best report N." + TruthsNote(data), {}};
   ReportSection cost{"cost", "Tests made and time", "", {}};
   const auto groups = Groups(data);
   for (size_t g = 0; g < groups.size(); ++g) {

@@ -3,8 +3,10 @@
 //
 // Figures (captions in the page say how to read each):
 //   power-*, false-edges-*   power and false-edge rate against observation
-//                            length, one line per learner, Wilson 95% bands,
-//                            targets and planned lengths from plan.csv
+//                            length, one line per learner, cluster-bootstrap
+//                            95% bands, power ceilings (dash-dot), targets
+//                            and planned lengths from plan.csv
+//   power-<group>-*          power per edge group (directed, loop, bidirected)
 //   tests-*, seconds-*       tests made and learner seconds (log scale)
 //   qq-<test>-<length>-parents-given, qq-<test>-<length>-parent-missing
 //                            p-values of tests whose null holds in the truth

@@ -99,6 +99,10 @@ std::string LinePlotScript(const LinePlot& plot) {
     o << "set arrow from first " << Num(x) << ", graph 0 to first " << Num(x) << ", graph 1 nohead dt 3 lw 1.5 lc rgb "
       << Quote(StyleColour(style)) << "\n";
   }
+  for (const auto& [style, y] : plot.ceilings) {
+    o << "set arrow from graph 0, first " << Num(y) << " to graph 1, first " << Num(y)
+      << " nohead dt 4 lw 1.5 lc rgb " << Quote(StyleColour(style)) << " back\n";
+  }
   const int n = static_cast<int>(plot.series.size());
   std::vector<std::string> layers;
   for (int i = 0; i < n; ++i) {

@@ -5,7 +5,8 @@
 // Okabe & Ito 2008 colour-blind-safe set, in study order, with distinct
 // filled markers so the lines read in grey too), a translucent band of the
 // same colour for each 95% interval, targets as grey dashed lines, planned
-// lengths as dotted vertical lines in the learner's colour. Points of
+// lengths as dotted vertical lines in the learner's colour, a learner's
+// power ceiling as a dash-dot horizontal line in its colour. Points of
 // different learners at one length are spread a little sideways so equal
 // values do not hide each other.
 #pragma once
@@ -43,6 +44,9 @@ struct LinePlot {
   std::string target_label;
   // Vertical marks: (series style, x), e.g. the planned length of a learner.
   std::vector<std::pair<int, double>> marks;
+  // Horizontal dash-dot lines in a learner's colour: (series style, y), e.g.
+  // the best power a method can reach given the edges it cannot report.
+  std::vector<std::pair<int, double>> ceilings;
 };
 
 struct QqPlot {

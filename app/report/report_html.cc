@@ -84,9 +84,48 @@ void WriteInterval(std::ostream& out, const char* column, const metrics::Interva
   WriteCell(out, (name + "_high").c_str(), i.high);
 }
 
+// Design-aware scoring block: power and false edges per edge group, the
+// method's power ceiling, mark agreement and the truths behind the intervals.
+void WriteGroupCell(std::ostream& out, const SummaryLine& s, int g) {
+  const char* name = metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g));
+  if (!s.reports[g]) {
+    out << "<td data-col=\"" << name << "_power\">cannot report</td>";
+  } else {
+    const metrics::Interval& p = s.group_power[g];
+    out << "<td class=\"n\" data-col=\"" << name << "_power\">" << ReportNumber(p.estimate) << " ["
+        << ReportNumber(p.low) << ", " << ReportNumber(p.high) << "]</td>";
+  }
+  out << "<td class=\"n\">" << s.group_solid_found[g] << "/" << s.group_solid[g] << "</td><td class=\"n\">"
+      << s.group_false_edges[g] << "/" << s.group_reported[g] << "</td>";
+}
+
+void WriteGroupNumbers(const ReportPage& page, std::ostream& out) {
+  out << "<p>By edge group: power with its 95% interval, solid edges found / solid edges of N, false "
+         "edges / reported edges; ceiling: the best pooled power the method can reach given the groups "
+         "it cannot report; marks agree: of the reported edges in N, the share whose solid/dashed mark "
+         "matches N's (methods that mark edges only).</p>\n<table id=\"group-table\">\n<tr><th>cell</th>"
+         "<th>length</th><th>learner</th><th>truths</th><th>ceiling</th>";
+  for (int g = 0; g < metrics::kEdgeGroups; ++g) {
+    const char* name = metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g));
+    out << "<th>" << name << " power</th><th>found</th><th>false</th>";
+  }
+  out << "<th colspan=3>marks agree</th></tr>\n";
+  for (const SummaryLine& s : page.summary) {
+    out << "<tr data-cell=\"" << s.cell << "\" data-learner=\"" << Escape(s.learner) << "\"><td class=\"n\">"
+        << s.cell << "</td>";
+    WriteCell(out, "length", s.length);
+    out << "<td>" << Escape(s.learner) << "</td><td class=\"n\">" << s.truths << "</td>";
+    WriteCell(out, "power_ceiling", s.power_ceiling);
+    for (int g = 0; g < metrics::kEdgeGroups; ++g) WriteGroupCell(out, s, g);
+    WriteInterval(out, "mark_agreement", s.mark_agreement);
+    out << "</tr>\n";
+  }
+  out << "</table>\n";
+}
+
 void WriteNumbers(const ReportPage& page, std::ostream& out) {
-  out << "<section id=\"numbers\"><h2>The numbers</h2>\n<p>As in summary.csv: pooled rates with "
-         "Wilson 95% intervals, means with percentile-bootstrap 95% intervals.</p>\n"
+  out << "<section id=\"numbers\"><h2>The numbers</h2>\n<p>As in summary.csv: pooled rates and "
+         "means with 95% cluster-bootstrap intervals (truths, then replicates within truths).</p>\n"
          "<table id=\"summary-table\">\n<tr><th>cell</th><th>length</th><th>level</th><th>hidden</th>"
          "<th>learner</th><th>replicates</th><th>failed</th><th colspan=3>power</th>"
          "<th colspan=3>false-edge rate</th><th colspan=3>class recovered</th>"
@@ -105,7 +144,9 @@ void WriteNumbers(const ReportPage& page, std::ostream& out) {
     WriteInterval(out, "timing_learn_seconds", s.seconds);
     out << "</tr>\n";
   }
-  out << "</table></section>\n";
+  out << "</table>\n";
+  WriteGroupNumbers(page, out);
+  out << "</section>\n";
 }
 
 }  // namespace

@@ -115,6 +115,24 @@ std::optional<Table> Open(const std::string& dir, const std::string& file, bool 
   return Table(path, text.str());
 }
 
+// The design-aware scoring columns of one summary line.
+void ReadGroups(const Table& t, size_t i, SummaryLine& s) {
+  s.truths = t.Whole(i, "truths");
+  s.power_ceiling = t.Number(i, "power_ceiling");
+  s.reports_marks = t.Text(i, "reports_marks") == "yes";
+  s.mark_agreement = t.Interval(i, "mark_agreement");
+  for (int g = 0; g < metrics::kEdgeGroups; ++g) {
+    const std::string name = metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g));
+    s.reports[g] = t.Text(i, "reports_" + name) == "yes";
+    s.group_power[g] = t.Interval(i, name + "_power");
+    s.group_false_edge_rate[g] = t.Interval(i, name + "_false_edge_rate");
+    s.group_solid[g] = t.Whole(i, name + "_solid");
+    s.group_solid_found[g] = t.Whole(i, name + "_solid_found");
+    s.group_reported[g] = t.Whole(i, name + "_reported");
+    s.group_false_edges[g] = t.Whole(i, name + "_false_edges");
+  }
+}
+
 void ReadSummary(const Table& t, ReportData& d) {
   for (size_t i = 0; i < t.size(); ++i) {
     SummaryLine s;
@@ -132,6 +150,7 @@ void ReadSummary(const Table& t, ReportData& d) {
     s.hamming = t.Interval(i, "hamming");
     s.tests = t.Interval(i, "tests");
     s.seconds = t.Interval(i, "timing_learn_seconds");
+    ReadGroups(t, i, s);
     d.summary.push_back(std::move(s));
   }
 }

@@ -4,12 +4,15 @@
 // the report reads exactly what the files say.
 #pragma once
 
+#include <array>
+#include <cmath>
 #include <optional>
 #include <string>
 #include <vector>
 
 #include "base/status.h"
 #include "metrics/intervals.h"
+#include "metrics/replicate_score.h"
 
 namespace locind::app {
 
@@ -23,6 +26,17 @@ struct SummaryLine {
   int replicates = 0;
   int failed = 0;
   metrics::Interval power, false_edge_rate, class_recovery, hamming, tests, seconds;
+  // Design-aware scoring: truths behind the intervals, what the method can
+  // report and its power ceiling, mark agreement, and per edge group
+  // (indexed by metrics::EdgeGroup) power, false edges and counts.
+  int truths = 0;
+  double power_ceiling = NAN;
+  std::array<bool, metrics::kEdgeGroups> reports{true, true, true};
+  bool reports_marks = false;
+  metrics::Interval mark_agreement;
+  std::array<metrics::Interval, metrics::kEdgeGroups> group_power, group_false_edge_rate;
+  std::array<int, metrics::kEdgeGroups> group_solid{}, group_solid_found{}, group_reported{},
+      group_false_edges{};
 };
 
 struct EdgeLine {

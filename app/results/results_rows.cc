@@ -26,7 +26,8 @@ std::string BuildReplicateHeader() {
       h += std::string(",") + metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g)) + "_" + n;
     }
   }
-  h += ",power,false_edge_rate,hamming,class_recovered,tests,not_estimable,largest_given,"
+  h += ",power,false_edge_rate,hamming,class_recovered,marks_compared,marks_agree,mark_agreement,"
+       "tests,not_estimable,largest_given,"
        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds";
   return h;
 }
@@ -55,6 +56,21 @@ bool ReadInt(const std::string& text, int& out) {
   if (!csv::ParseNumber(text, v) || v != std::floor(v)) return false;
   out = static_cast<int>(v);
   return true;
+}
+
+// Summary columns of the design-aware scoring (results/README.md): truths,
+// the method's reach and power ceiling, mark agreement, and power and false
+// edges per edge group. Each ends with a comma.
+std::string SummaryScoreColumns() {
+  std::string h = "truths,power_ceiling,reports_directed,reports_loop,reports_bidirected,reports_marks,"
+                  "mark_agreement,mark_agreement_low,mark_agreement_high,marks_compared,marks_agree,";
+  for (int g = 0; g < metrics::kEdgeGroups; ++g) {
+    const std::string p = std::string(metrics::EdgeGroupName(static_cast<metrics::EdgeGroup>(g))) + "_";
+    h += p + "power," + p + "power_low," + p + "power_high," + p + "solid," + p + "solid_found," + p +
+         "false_edge_rate," + p + "false_edge_rate_low," + p + "false_edge_rate_high," + p + "reported," +
+         p + "false_edges,";
+  }
+  return h;
 }
 
 }  // namespace
@@ -95,7 +111,8 @@ const std::string& SummaryHeader() {
       "power,power_low,power_high,false_edge_rate,false_edge_rate_low,false_edge_rate_high,"
       "class_recovery,class_recovery_low,class_recovery_high,hamming,hamming_low,hamming_high,"
       "tests,tests_low,tests_high,largest_given,largest_given_low,largest_given_high,"
-      "solid,solid_found,dashed,dashed_found,reported,false_edges,"
+      "solid,solid_found,dashed,dashed_found,reported,false_edges," +
+      SummaryScoreColumns() +
       "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high";
   return header;
 }
@@ -113,7 +130,8 @@ std::string FormatReplicateRow(const ReplicateRow& r) {
     for (int* v : CountFields(group)) o << "," << *v;
   }
   o << "," << Num(s.power) << "," << Num(s.false_edge_rate) << "," << s.hamming << ","
-    << (s.class_recovered ? 1 : 0) << "," << r.tests << "," << r.not_estimable << ","
+    << (s.class_recovered ? 1 : 0) << "," << s.marks_compared << "," << s.marks_agree << ","
+    << Num(s.mark_agreement) << "," << r.tests << "," << r.not_estimable << ","
     << r.largest_given << "," << Num(r.timing_simulate_seconds) << ","
     << Num(r.timing_test_seconds) << "," << Num(r.timing_learn_seconds) << ","
     << Num(r.timing_score_seconds);
@@ -123,7 +141,7 @@ std::string FormatReplicateRow(const ReplicateRow& r) {
 std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   const std::vector<std::string> f = SplitCommas(line);
   constexpr size_t kCounts = 8 * (1 + metrics::kEdgeGroups);
-  if (f.size() != 14 + kCounts + 11) return std::nullopt;
+  if (f.size() != 14 + kCounts + 14) return std::nullopt;
   ReplicateRow r;
   double target = 0;
   bool ok = ReadInt(f[0], r.cell) && ReadInt(f[1], r.replicate) && ReadNumber(f[3], r.length) &&
@@ -145,11 +163,15 @@ std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   }
   int recovered = 0;
   ok = ok && ReadNumber(f[i], r.score.power) && ReadNumber(f[i + 1], r.score.false_edge_rate) &&
-       ReadInt(f[i + 2], r.score.hamming) && ReadInt(f[i + 3], recovered) &&
-       ReadInt(f[i + 4], r.tests) && ReadInt(f[i + 5], r.not_estimable) &&
-       ReadInt(f[i + 6], r.largest_given) && ReadNumber(f[i + 7], r.timing_simulate_seconds) &&
-       ReadNumber(f[i + 8], r.timing_test_seconds) && ReadNumber(f[i + 9], r.timing_learn_seconds) &&
-       ReadNumber(f[i + 10], r.timing_score_seconds);
+       ReadInt(f[i + 2], r.score.hamming) && ReadInt(f[i + 3], recovered);
+  i += 4;
+  ok = ok && ReadInt(f[i], r.score.marks_compared) && ReadInt(f[i + 1], r.score.marks_agree) &&
+       ReadNumber(f[i + 2], r.score.mark_agreement);
+  i += 3;
+  ok = ok && ReadInt(f[i], r.tests) && ReadInt(f[i + 1], r.not_estimable) &&
+       ReadInt(f[i + 2], r.largest_given) && ReadNumber(f[i + 3], r.timing_simulate_seconds) &&
+       ReadNumber(f[i + 4], r.timing_test_seconds) && ReadNumber(f[i + 5], r.timing_learn_seconds) &&
+       ReadNumber(f[i + 6], r.timing_score_seconds);
   r.score.class_recovered = recovered != 0;
   if (!ok) return std::nullopt;
   return r;
@@ -172,6 +194,20 @@ std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
   interval(s.largest_given);
   o << "," << s.totals.solid << "," << s.totals.solid_found << "," << s.totals.dashed << ","
     << s.totals.dashed_found << "," << s.totals.reported << "," << s.totals.false_edges;
+  // Design-aware scoring block (SummaryScoreColumns).
+  auto yes = [](bool b) { return b ? ",yes" : ",no"; };
+  o << "," << s.truths << "," << Num(s.power_ceiling);
+  for (bool g : s.reach.groups) o << yes(g);
+  o << yes(s.reach.marks);
+  interval(s.mark_agreement);
+  o << "," << (s.reach.marks ? std::to_string(s.marks_compared) : "") << ","
+    << (s.reach.marks ? std::to_string(s.marks_agree) : "");
+  for (const metrics::GroupSummary& g : s.groups) {
+    interval(g.power);
+    o << "," << g.totals.solid << "," << g.totals.solid_found;
+    interval(g.false_edge_rate);
+    o << "," << g.totals.reported << "," << g.totals.false_edges;
+  }
   interval(s.seconds);
   return o.str();
 }

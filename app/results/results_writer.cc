@@ -1,5 +1,6 @@
 #include "app/results/results_writer.h"
 
+#include <algorithm>
 #include <filesystem>
 #include <sstream>
 
@@ -9,6 +10,7 @@
 #include "app/study/truth_drawings.h"
 #include "app/study/truth_models.h"
 #include "app/io/svg_render.h"
+#include "learners/methods/learner_registry.h"
 
 namespace locind::app {
 namespace {
@@ -152,13 +154,32 @@ Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
 
 }  // namespace
 
+metrics::LearnerReach ReachOf(const std::string& method) {
+  metrics::LearnerReach reach;
+  const learners::MethodEntry* entry = learners::FindMethod(method);
+  if (entry == nullptr) return reach;  // unknown method: assume it can report everything
+  using metrics::EdgeGroup;
+  reach.groups[static_cast<int>(EdgeGroup::kDirected)] = entry->reports & learners::kReportsDirected;
+  reach.groups[static_cast<int>(EdgeGroup::kLoop)] = entry->reports & learners::kReportsLoops;
+  reach.groups[static_cast<int>(EdgeGroup::kBidirected)] = entry->reports & learners::kReportsBidirected;
+  reach.marks = entry->reports & learners::kReportsMarks;
+  return reach;
+}
+
 metrics::CellSummary SummarizeCell(const StudySpec& study, const Cell& cell, int learner,
                                    const std::vector<ReplicateRow>& rows) {
+  // Truths numbered by first appearance: the cluster bootstrap resamples them.
+  std::vector<std::string> truths;
   std::vector<metrics::ReplicateRecord> records;
-  for (const ReplicateRow& r : rows) records.push_back(RecordOf(r));
+  for (const ReplicateRow& r : rows) {
+    records.push_back(RecordOf(r));
+    auto it = std::find(truths.begin(), truths.end(), r.truth);
+    records.back().truth = static_cast<int>(it - truths.begin());
+    if (it == truths.end()) truths.push_back(r.truth);
+  }
   base::RandomStream random(base::StreamKey{study.seed, cell.key, static_cast<uint64_t>(learner),
                                               kPurposeSummary});
-  return metrics::Summarize(records, random);
+  return metrics::Summarize(records, ReachOf(study.learners[learner].method), random);
 }
 
 std::string ReplicatesCsv(const std::map<Unit, UnitResult>& units) {

@@ -29,8 +29,12 @@ namespace locind::app {
 
 inline constexpr char kLocindVersion[] = "0.1.0";  // CMakeLists.txt project(VERSION)
 
-// Summary of one learner's rows in one cell; bootstrap stream keyed by
-// (seed, cell key, learner index, kPurposeSummary).
+// What the registry declares `method` can report (everything for an
+// unknown method).
+metrics::LearnerReach ReachOf(const std::string& method);
+
+// Summary of one learner's rows in one cell, clustered by truth label;
+// bootstrap stream keyed by (seed, cell key, learner index, kPurposeSummary).
 metrics::CellSummary SummarizeCell(const StudySpec& study, const Cell& cell, int learner,
                                    const std::vector<ReplicateRow>& rows);
 

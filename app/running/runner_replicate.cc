@@ -267,7 +267,9 @@ void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& tru
   row.largest_given = result->largest_given;
   const Clock::time_point scoring = Clock::now();
   const metrics::TruthClass& truth_class = *truth.truth_class;
-  row.score = metrics::ScoreGraph(truth_class, result->graph);
+  row.score = result->has_marks
+                  ? metrics::ScoreGraph(truth_class, result->graph, learners::DashedEdges(*result))
+                  : metrics::ScoreGraph(truth_class, result->graph);
   AddEdgeLines(row, truth_class, *result, out.edge_lines);
   AddNullTestLines(row, truth_class, *result, out.null_test_lines);
   row.timing_score_seconds = Since(scoring);

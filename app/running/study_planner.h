@@ -12,8 +12,10 @@
 // length), and is summarised with metrics::Summarize.
 //
 // Uncertainty: besides the length where the point estimates meet the
-// targets, two bounds from the 95% Wilson intervals over the evaluated
-// lengths: the smallest length whose intervals still allow the targets
+// targets, two bounds from the summary's 95% intervals over the evaluated
+// lengths (two-stage cluster bootstrap over truths and replicates,
+// metrics/cell_summary.h; when every replicate agrees the interval has zero
+// width, e.g. an oracle finding every edge is "guaranteed" at once): the smallest length whose intervals still allow the targets
 // (optimistic: power upper bound >= target and false-edge lower bound <=
 // target) and the smallest from which the intervals guarantee them
 // (conservative: power lower bound >= target and false-edge upper bound <=

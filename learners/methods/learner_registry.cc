@@ -23,24 +23,30 @@ std::unique_ptr<Learner> MakeScreening(const MethodSettings& settings) {
   return std::make_unique<ScreeningLearner>(settings.screening_size);
 }
 
+// pairwise and penalized-fit only ever add a -> b (a == b allowed);
+// screen adds a <-> b when both directions are kept; maximal-search and
+// exhaustive decide every edge and set marks (SetGraphWithMarks).
+constexpr unsigned kDirectedAndLoops = kReportsDirected | kReportsLoops;
+constexpr unsigned kAllGroups = kDirectedAndLoops | kReportsBidirected;
+
 }  // namespace
 
 const std::vector<MethodEntry>& LearningMethods() {
   static const std::vector<MethodEntry> methods = {
       {"pairwise", "a -> b unless b is independent of a given all other processes", true,
-       MakePlain<PairwiseLearner>},
+       MakePlain<PairwiseLearner>, kDirectedAndLoops},
       {"maximal-search",
        "search for the maximal graph and its solid/dashed marks (exact under the oracle)", true,
-       MakePlain<MaximalSearch>},
+       MakePlain<MaximalSearch>, kAllGroups | kReportsMarks},
       {"margin-search",
        "maximal search that uses each answer by its strength, order-independent (exact under the oracle)",
-       true, MakePlain<MarginSearch>},
+       true, MakePlain<MarginSearch>, kAllGroups | kReportsMarks},
       {"exhaustive", "every edge from the full list of separations (reference; small graphs)",
-       true, MakePlain<ExhaustiveLearner>},
+       true, MakePlain<ExhaustiveLearner>, kAllGroups | kReportsMarks},
       {"screen", "separation search with conditioning sets of at most k processes besides b",
-       true, MakeScreening},
+       true, MakeScreening, kAllGroups},
       {"penalized-fit", "L1-penalized fit of every process on all others, no tests (needs data)",
-       false, MakePenalizedFit},
+       false, MakePenalizedFit, kDirectedAndLoops},
   };
   return methods;
 }

@@ -17,11 +17,22 @@ struct MethodSettings {
   double penalty = -1;     // penalized-fit: scale of the L1 weight; <= 0 means 1
 };
 
+// What a method can report at all, as bits of MethodEntry::reports (checked
+// against each method's code): edge groups it can output, and whether it
+// marks its edges solid/dashed. A group it cannot output caps its power.
+enum MethodReports : unsigned {
+  kReportsDirected = 1,    // a -> b, a != b
+  kReportsLoops = 2,       // a -> a
+  kReportsBidirected = 4,  // a <-> b
+  kReportsMarks = 8,       // solid/dashed marks (LearnResult::has_marks)
+};
+
 struct MethodEntry {
   const char* name;
   const char* description;  // one line, no tab
   bool uses_tests;          // false: the method reads the data itself
   std::unique_ptr<Learner> (*make)(const MethodSettings& settings);
+  unsigned reports;         // MethodReports bits
 };
 
 // Every method, in a fixed order.

@@ -100,6 +100,45 @@ TEST_CASE("Clopper-Pearson interval matches SciPy's Beta quantiles") {
   const Interval wilson = WilsonInterval(2, 40);
   CHECK(exact.low < wilson.low);
   CHECK(exact.high > wilson.high);
+
+TEST_CASE("clustered ratio interval: estimate, zero width when values agree, undefined cases") {
+  base::RandomStream random(5);
+  // 2 truths x 8 replicates, each 3 of 6 solid edges found: every resample
+  // gives 24/48 = 0.5 exactly, so the interval is [0.5, 0.5] (the Wilson
+  // interval over the 96 pooled edges would be [0.40, 0.60]).
+  std::vector<ClusteredValue> same;
+  for (int r = 0; r < 16; ++r) same.push_back({r % 2, 3, 6});
+  const Interval flat = ClusteredRatioInterval(same, 1000, random);
+  CHECK(flat.estimate == 0.5);
+  CHECK(flat.low == 0.5);
+  CHECK(flat.high == 0.5);
+  // The estimate is the ratio of sums, not the mean of ratios: (1 + 4) / (2 + 8).
+  const Interval ratio = ClusteredRatioInterval({{0, 1, 2}, {1, 4, 8}}, 200, random);
+  CHECK(ratio.estimate == doctest::Approx(0.5));
+  // Nothing to divide by.
+  CHECK(std::isnan(ClusteredRatioInterval({{0, 0, 0}}, 100, random).estimate));
+  CHECK(std::isnan(ClusteredRatioInterval({}, 100, random).low));
+}
+
+TEST_CASE("clustered ratio interval: truths that differ widen it; cluster ids only group") {
+  // Truth 0 finds 1 of 6 in every replicate, truth 1 finds 5 of 6: the
+  // between-truth difference is the whole variation. Resamples that draw
+  // truth 0 twice give 1/6, truth 1 twice 5/6 (probability 1/4 each), so the
+  // 2.5% and 97.5% percentiles are exactly 1/6 and 5/6.
+  std::vector<ClusteredValue> split;
+  for (int r = 0; r < 8; ++r) split.push_back({r % 2, r % 2 == 0 ? 1.0 : 5.0, 6});
+  base::RandomStream a(11);
+  const Interval wide = ClusteredRatioInterval(split, 2000, a);
+  CHECK(wide.estimate == doctest::Approx(0.5));
+  CHECK(wide.low == doctest::Approx(1.0 / 6.0));
+  CHECK(wide.high == doctest::Approx(5.0 / 6.0));
+  // Renumbering the clusters (same grouping, same order) changes nothing.
+  std::vector<ClusteredValue> renamed = split;
+  for (ClusteredValue& v : renamed) v.cluster = v.cluster == 0 ? 42 : 7;
+  base::RandomStream b(11);
+  const Interval again = ClusteredRatioInterval(renamed, 2000, b);
+  CHECK(again.low == wide.low);
+  CHECK(again.high == wide.high);
 }
 
 }  // namespace

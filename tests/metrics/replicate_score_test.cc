@@ -2,6 +2,7 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 
 #include "metrics/cell_summary.h"
@@ -112,7 +113,123 @@ TEST_CASE("an empty learned graph: power 0, false-edge rate undefined") {
   const ReplicateScore s = ScoreGraph(tc, graph::Dmg(tc.projected.names()));
   CHECK(s.power == 0.0);
   CHECK(std::isnan(s.false_edge_rate));
-  CHECK(s.hamming == Brute().edges);
+  // Missed dashed edges are not counted (results/README.md): the distance is
+  // the number of solid edges.
+  CHECK(s.hamming == Brute().solid);
+  CHECK(std::isnan(s.mark_agreement));
+}
+
+// A hand-made class over a, b, c (marks chosen, not computed), sorted the
+// way ComputeTruthClass sorts them:
+//   a -> a solid, a -> b solid, b -> b dashed, b -> c solid, a <-> b dashed.
+TruthClass HandClass() {
+  using graph::EdgeKind;
+  TruthClass tc;
+  tc.projected = graph::Dmg({"a", "b", "c"});
+  std::vector<std::pair<graph::Edge, bool>> marked = {
+      {{0, 0, EdgeKind::kDirected}, false}, {{0, 1, EdgeKind::kDirected}, false},
+      {{1, 1, EdgeKind::kDirected}, true},  {{1, 2, EdgeKind::kDirected}, false},
+      {{0, 1, EdgeKind::kBidirected}, true}};
+  std::sort(marked.begin(), marked.end());
+  for (const auto& [e, dashed] : marked) {
+    tc.edges.push_back(e);
+    tc.dashed.push_back(dashed);
+  }
+  return tc;
+}
+
+TEST_CASE("Hamming distance and class recovery leave dashed edges out") {
+  const TruthClass tc = HandClass();
+  // Learned: a -> a, a -> b (solid, found), a <-> b (dashed, reported: not
+  // false), c -> a (not in N: false). Missed: b -> c (solid, an error) and
+  // b -> b (dashed, no error). Distance = 1 missed solid + 1 false = 2; the
+  // old count of every edge of N not reported would have been 3.
+  graph::Dmg learned(tc.projected.names());
+  learned.AddDirected(0, 0);
+  learned.AddDirected(0, 1);
+  learned.AddBidirected(0, 1);
+  learned.AddDirected(2, 0);
+  const ReplicateScore s = ScoreGraph(tc, learned);
+  CHECK(s.total.solid == 3);
+  CHECK(s.total.solid_found == 2);
+  CHECK(s.total.dashed == 2);
+  CHECK(s.total.dashed_found == 1);
+  CHECK(s.total.false_edges == 1);
+  CHECK(s.total.in_class == 3);
+  CHECK(s.hamming == 2);
+  CHECK_FALSE(s.class_recovered);
+  CHECK(s.by_group[int(EdgeGroup::kBidirected)].false_edges == 0);
+  // Only the three solid edges: every solid edge found, nothing outside N,
+  // so distance 0 and the class counts as recovered although both dashed
+  // edges are missing.
+  graph::Dmg solid_only(tc.projected.names());
+  solid_only.AddDirected(0, 0);
+  solid_only.AddDirected(0, 1);
+  solid_only.AddDirected(1, 2);
+  const ReplicateScore r = ScoreGraph(tc, solid_only);
+  CHECK(r.hamming == 0);
+  CHECK(r.class_recovered);
+  CHECK(r.power == 1.0);
+}
+
+TEST_CASE("mark agreement compares the learner's marks on reported edges in N") {
+  const TruthClass tc = HandClass();
+  graph::Dmg learned(tc.projected.names());
+  learned.AddDirected(0, 0);    // marked dashed, solid in N: disagrees
+  learned.AddDirected(0, 1);    // marked solid, solid in N: agrees
+  learned.AddBidirected(0, 1);  // marked dashed, dashed in N: agrees
+  learned.AddDirected(2, 0);    // not in N: not compared
+  const std::vector<graph::Edge> dashed = {{0, 0, graph::EdgeKind::kDirected},
+                                           {0, 1, graph::EdgeKind::kBidirected},
+                                           {2, 0, graph::EdgeKind::kDirected}};
+  const ReplicateScore s = ScoreGraph(tc, learned, dashed);
+  CHECK(s.marks_compared == 3);
+  CHECK(s.marks_agree == 2);
+  CHECK(s.mark_agreement == doctest::Approx(2.0 / 3.0));
+  // The marks change nothing else.
+  const ReplicateScore plain = ScoreGraph(tc, learned);
+  CHECK(plain.hamming == s.hamming);
+  CHECK(plain.marks_compared == 0);
+  CHECK(std::isnan(plain.mark_agreement));
+}
+
+TEST_CASE("cell summaries by edge group, power ceiling and truths") {
+  const TruthClass tc = HandClass();
+  // The learned graph of the first test, twice, for two truths.
+  graph::Dmg learned(tc.projected.names());
+  learned.AddDirected(0, 0);
+  learned.AddDirected(0, 1);
+  learned.AddBidirected(0, 1);
+  learned.AddDirected(2, 0);
+  std::vector<ReplicateRecord> records(4);
+  for (int i = 0; i < 4; ++i) {
+    records[i].truth = i % 2;
+    records[i].score = ScoreGraph(tc, learned, {});
+  }
+  LearnerReach reach;
+  reach.groups[int(EdgeGroup::kLoop)] = false;  // say loops cannot be reported
+  reach.marks = true;
+  base::RandomStream random(17);
+  const CellSummary s = Summarize(records, reach, random, 300);
+  CHECK(s.truths == 2);
+  // Directed: a -> b found, b -> c missed: 1/2 each replicate, so every
+  // resample gives 1/2 and the interval has zero width.
+  const GroupSummary& directed = s.groups[int(EdgeGroup::kDirected)];
+  CHECK(directed.totals.solid == 8);
+  CHECK(directed.power.estimate == 0.5);
+  CHECK(directed.power.low == 0.5);
+  CHECK(directed.power.high == 0.5);
+  CHECK(directed.false_edge_rate.estimate == doctest::Approx(1.0 / 2.0));  // c -> a of a -> b, c -> a
+  // Bidirected group: no solid edge, power undefined.
+  CHECK(std::isnan(s.groups[int(EdgeGroup::kBidirected)].power.estimate));
+  // Ceiling: solid edges outside loops / all solid = 2 / 3.
+  CHECK(s.power_ceiling == doctest::Approx(2.0 / 3.0));
+  // Marks: every reported edge in N marked solid (empty dashed list): a -> a
+  // and a -> b agree, a <-> b (dashed in N) does not.
+  CHECK(s.marks_compared == 12);
+  CHECK(s.marks_agree == 8);
+  CHECK(s.mark_agreement.estimate == doctest::Approx(2.0 / 3.0));
+  CHECK(s.hamming.estimate == 2.0);
 }
 
 TEST_CASE("cell summaries pool counts and skip failed replicates") {
@@ -124,7 +241,7 @@ TEST_CASE("cell summaries pool counts and skip failed replicates") {
   records[1].tests = 20;
   records[2].ok = false;
   base::RandomStream random(9);
-  const CellSummary s = Summarize(records, random, 200);
+  const CellSummary s = Summarize(records, LearnerReach{}, random, 200);
   CHECK(s.replicates == 3);
   CHECK(s.failed == 1);
   CHECK(s.power.estimate == doctest::Approx(0.5));

@@ -152,6 +152,42 @@ TEST_CASE("every number in the report's table equals summary.csv") {
   CHECK(compared == 6 * 14);
 }
 
+TEST_CASE("the edge-group table shows summary.csv's ceiling and mark agreement") {
+  const std::string html = ReadAll(StudyFolder() / "report.html");
+  const size_t table = html.find("id=\"group-table\"");
+  REQUIRE(table != std::string::npos);
+  std::istringstream csv(ReadAll(StudyFolder() / "summary.csv"));
+  std::string line;
+  std::getline(csv, line);
+  const std::vector<std::string> header = Split(line);
+  int compared = 0;
+  while (std::getline(csv, line)) {
+    const std::vector<std::string> f = Split(line);
+    std::map<std::string, std::string> value;
+    for (size_t i = 0; i < header.size(); ++i) value[header[i]] = f[i];
+    const std::string key = "data-cell=\"" + value["cell"] + "\" data-learner=\"" + value["learner"] + "\"";
+    const size_t at = html.find(key, table);
+    REQUIRE_MESSAGE(at != std::string::npos, key);
+    const std::string row = html.substr(at, html.find("</tr>", at) - at);
+    for (const char* column : {"power_ceiling", "mark_agreement", "mark_agreement_low", "mark_agreement_high"}) {
+      const std::string mark = std::string("data-col=\"") + column + "\">";
+      const size_t start = row.find(mark);
+      REQUIRE_MESSAGE(start != std::string::npos, column);
+      const size_t from = start + mark.size();
+      const std::string shown = row.substr(from, row.find('<', from) - from);
+      if (value[column].empty()) {
+        CHECK_MESSAGE(shown == "-", column);
+      } else {
+        CHECK_MESSAGE(std::abs(std::stod(shown) - std::stod(value[column])) <= 5e-4 + 1e-12, column);
+      }
+      ++compared;
+    }
+    // A group the method cannot report says so instead of a number.
+    if (value["reports_bidirected"] == "no") CHECK(row.find("cannot report") != std::string::npos);
+  }
+  CHECK(compared == 6 * 4);
+}
+
 TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   const std::string html = ReadAll(StudyFolder() / "report.html");
   int figures = 0;
@@ -162,9 +198,10 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
     CHECK_MESSAGE(html.find("<figure id=\"" + id + "\">") != std::string::npos, id);
     ++figures;
   }
-  // power, false-edges, tests, seconds; one QQ plot per row of
-  // calibration.csv (one level: test, length and tag); truth, projection,
-  // class; 3 learners x 2 replicates learned.
+  // power, false-edges, tests, seconds; power per edge group (the class has
+  // solid directed edges, loops and b <-> c from the hidden h: 3 panels); one
+  // QQ plot per row of calibration.csv (one level: test, length and tag);
+  // truth, projection, class; 3 learners x 2 replicates learned.
   const std::vector<std::map<std::string, std::string>> groups = CsvRows(StudyFolder() / "calibration.csv");
   // hawkes-lr at 150 and 600; target a (parents: a only) gives "yes" rows,
   // targets b and c (b <-> c through h) only "no" rows.
@@ -175,7 +212,10 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
                            (g.at("all_parents_given") == "yes" ? "-parents-given" : "-parent-missing");
     CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (id + ".svg")), id);
   }
-  CHECK(figures == 4 + static_cast<int>(groups.size()) + 3 + 6);
+  CHECK(figures == 4 + 3 + static_cast<int>(groups.size()) + 3 + 6);
+  for (const char* group : {"power-directed", "power-loop", "power-bidirected"}) {
+    CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (std::string(group) + ".svg")), group);
+  }
   CHECK(std::count(html.begin(), html.end(), '\n') > 100);
   // Self-contained: nothing to fetch (only XML namespace names mention http).
   for (const char* link : {"src=\"http", "href=\"http", "src='http", "href='http"}) {

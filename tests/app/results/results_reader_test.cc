@@ -29,7 +29,13 @@ struct Folder {
     fs::create_directories(dir);
     Write("summary.csv", SummaryHeader() + "\n" +
                              "0,250,0.05,2,0.6,pairwise/hawkes-lr,8,1,0.5,0.25,0.75,,,,0,0,0.3,1.5,1,2,12,11,13,1,"
-                             "1,1,10,5,2,0,6,0,0.01,0.005,0.02\n");
+                             "1,1,10,5,2,0,6,0,"
+                             // truths .. marks_agree, then directed, loop, bidirected
+                             "2,0.8,yes,yes,no,no,,,,,,"
+                             "0.6,0.4,0.8,5,3,0,0,0,4,0,"
+                             "0.4,0.2,0.6,5,2,0,0,0,2,0,"
+                             ",,,0,0,,,,0,0,"
+                             "0.01,0.005,0.02\n");
     Write("edges.csv", EdgeHeader() + "\n" +
                            "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,b,a,b,3.2,0.01,ok,dependent\n");
     Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes\n");
@@ -54,6 +60,15 @@ TEST_CASE("the files of a result folder read back by column name") {
   CHECK(std::isnan(s.false_edge_rate.estimate));
   CHECK(s.tests.estimate == 12);
   CHECK(s.seconds.high == 0.02);
+  CHECK(s.truths == 2);
+  CHECK(s.power_ceiling == 0.8);
+  CHECK(s.reports[int(metrics::EdgeGroup::kLoop)]);
+  CHECK_FALSE(s.reports[int(metrics::EdgeGroup::kBidirected)]);
+  CHECK_FALSE(s.reports_marks);
+  CHECK(std::isnan(s.mark_agreement.estimate));
+  CHECK(s.group_power[int(metrics::EdgeGroup::kDirected)].low == 0.4);
+  CHECK(s.group_solid_found[int(metrics::EdgeGroup::kLoop)] == 2);
+  CHECK(s.group_reported[int(metrics::EdgeGroup::kDirected)] == 4);
   REQUIRE(d->edges.size() == 1);
   CHECK(d->edges[0].edge == "a -> b");
   CHECK(d->edges[0].reported);
@@ -87,7 +102,7 @@ TEST_CASE("plan.csv is read when present") {
 }
 
 TEST_CASE("each plan.csv row names its combination and fits only that panel") {
-  Folder f;
+  Folder f("combination");
   LearnerPlan one;
   one.learner = "pairwise/hawkes-lr";
   one.reached = true;

@@ -25,7 +25,8 @@ TEST_CASE("replicates.csv header") {
   CHECK(ReplicateHeader() ==
         "cell,replicate,truth,length,level,hidden_count,stationarity_target,stationarity_value,"
         "learner,method,test,status,message,observed_points" + groups +
-        ",power,false_edge_rate,hamming,class_recovered,tests,not_estimable,largest_given,"
+        ",power,false_edge_rate,hamming,class_recovered,marks_compared,marks_agree,mark_agreement,"
+        "tests,not_estimable,largest_given,"
         "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds");
 }
 
@@ -36,12 +37,22 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
   CHECK(NullTestHeader() ==
         "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
         "test_statistic,test_df,test_p_value,all_parents_given");
+  std::string groups;
+  for (const char* g : {"directed_", "loop_", "bidirected_"}) {
+    for (const char* c : {"power", "power_low", "power_high", "solid", "solid_found", "false_edge_rate",
+                          "false_edge_rate_low", "false_edge_rate_high", "reported", "false_edges"}) {
+      groups += std::string(g) + c + ",";
+    }
+  }
   CHECK(SummaryHeader() ==
         "cell,length,level,hidden_count,stationarity_target,learner,replicates,failed,"
         "power,power_low,power_high,false_edge_rate,false_edge_rate_low,false_edge_rate_high,"
         "class_recovery,class_recovery_low,class_recovery_high,hamming,hamming_low,hamming_high,"
         "tests,tests_low,tests_high,largest_given,largest_given_low,largest_given_high,"
         "solid,solid_found,dashed,dashed_found,reported,false_edges,"
+        "truths,power_ceiling,reports_directed,reports_loop,reports_bidirected,reports_marks,"
+        "mark_agreement,mark_agreement_low,mark_agreement_high,marks_compared,marks_agree," +
+        groups +
         "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high");
 }
 
@@ -85,12 +96,17 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   r.tests = 40;
   r.largest_given = 2;
   r.timing_learn_seconds = 0.123456789;
+  r.score.marks_compared = 5;
+  r.score.marks_agree = 4;
+  r.score.mark_agreement = 0.8;
   const std::string line = FormatReplicateRow(r);
-  CHECK(line.find(",0.3333333333333333,,4,1,40,") != std::string::npos);  // NaN is an empty field
+  CHECK(line.find(",0.3333333333333333,,4,1,5,4,0.8,40,") != std::string::npos);  // NaN is an empty field
   const std::optional<ReplicateRow> back = ParseReplicateRow(line);
   REQUIRE(back.has_value());
   CHECK(FormatReplicateRow(*back) == line);
   CHECK(back->score.by_group[1].solid == 3);
+  CHECK(back->score.marks_agree == 4);
+  CHECK(back->score.mark_agreement == 0.8);
   CHECK(std::isnan(back->score.false_edge_rate));
 
   r.ok = false;
