@@ -104,6 +104,7 @@ Interval ClopperPearsonInterval(int64_t successes, int64_t trials, double confid
                           ? 1.0
                           : boost::math::quantile(boost::math::beta_distribution<double>(x + 1, n - x), 1 - tail);
   return {x / n, low, high};
+}
 
 Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int resamples,
                                 base::RandomStream& random, double confidence) {

@@ -100,6 +100,7 @@ TEST_CASE("Clopper-Pearson interval matches SciPy's Beta quantiles") {
   const Interval wilson = WilsonInterval(2, 40);
   CHECK(exact.low < wilson.low);
   CHECK(exact.high > wilson.high);
+}
 
 TEST_CASE("clustered ratio interval: estimate, zero width when values agree, undefined cases") {
   base::RandomStream random(5);
