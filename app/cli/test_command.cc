@@ -6,8 +6,10 @@
 // Asks "is B locally independent of A1, A2 given C1, C2?" (include B in
 // --given to condition on its own past, the usual question). The data kind
 // is read from the header ("time,process" for events) unless --kind is
-// given. Tests: hawkes-lr (default for events), hawkes-lr-chibar,
-// hawkes-lr-signed; drift-f (default for paths), drift-robust-wald. --rates
+// given. Tests: hawkes-lr (default for events; chi-bar-squared reference),
+// hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
+// event-local-covariance, event-local-covariance-end; drift-f (default for
+// paths), drift-robust-wald. --rates
 // sets the exponential rate grid (events) or the filter rates (paths).
 // Prints target, sources, given, test, statistic, df, p_value and status
 // (with the reason when not estimable), one "key: value" per line, or one
@@ -82,17 +84,14 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   EventsOrError read = ReadEventCsvFile(o.data);
   if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
   sim::EventData data = std::get<sim::EventData>(std::move(read));
-  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
-  if (!options) {
-    throw UsageError{"unknown test '" + o.test +
-                     "' for events (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
-  }
   std::vector<double> rates = ParseRates(o);
   if (rates.empty()) rates = learners::DefaultHawkesRates(data);
   auto features = learners::HawkesFeatures::Create(std::move(data), rates);
   if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
-  return std::make_unique<learners::HawkesLrTest>(
-      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
+  std::unique_ptr<learners::IndependenceTest> test = MakeEventTest(
+      o.test, std::make_shared<learners::HawkesFeatures>(std::move(features.value())), 1);
+  if (!test) throw UsageError{"unknown test '" + o.test + "' for events (" + EventTestList() + ")"};
+  return test;
 }
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
