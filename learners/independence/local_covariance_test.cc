@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <string>
+#include <vector>
 
 #include "learners/independence/reference_distributions.h"
 
@@ -121,22 +122,25 @@ LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
                                    const Eigen::MatrixXd& g_events) {
   const Eigen::Index d = g_grid.cols();
   LocalCovarianceEstimate e;
-  e.gamma = Eigen::VectorXd::Zero(d);
-  e.supremum = Eigen::VectorXd::Zero(d);
+  // Per component, plain loops: the merge has one step per node and event.
+  std::vector<double> gamma(size_t(d), 0.0), supremum(size_t(d), 0.0);
   size_t g = 0, i = 0;
   while (g < grid_times.size() || i < event_times.size()) {
     const bool take_event =
         i < event_times.size() && (g == grid_times.size() || event_times[i] <= grid_times[g]);
-    if (take_event) {
-      e.gamma += g_events.row(Eigen::Index(i)).transpose();
-      ++i;
-    } else {
-      e.gamma -= weights[Eigen::Index(g)] * lambda_grid[Eigen::Index(g)] *
-                 g_grid.row(Eigen::Index(g)).transpose();
-      ++g;
+    for (Eigen::Index j = 0; j < d; ++j) {
+      double& value = gamma[size_t(j)];
+      if (take_event) {
+        value += g_events(Eigen::Index(i), j);
+      } else {
+        value -= weights[Eigen::Index(g)] * lambda_grid[Eigen::Index(g)] * g_grid(Eigen::Index(g), j);
+      }
+      supremum[size_t(j)] = std::max(supremum[size_t(j)], std::abs(value));
     }
-    e.supremum = e.supremum.cwiseMax(e.gamma.cwiseAbs());
+    take_event ? ++i : ++g;
   }
+  e.gamma = Eigen::Map<Eigen::VectorXd>(gamma.data(), d);
+  e.supremum = Eigen::Map<Eigen::VectorXd>(supremum.data(), d);
   e.variance = g_events.transpose() * g_events;
   return e;
 }
@@ -199,14 +203,17 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
     const Nuisance n =
         FitNuisance(z_grid, x_grid, grid.weights, grid_fold, z_events, event_fold, 1 - fold);
     if (!n.ok) return Status::Error("singular design: the history features of C are collinear");
+    // Whole-matrix products (vectorised), then the rows of this fold.
+    const Eigen::MatrixXd residual_grid = x_grid - z_grid * n.beta.leftCols(d);
+    const Eigen::VectorXd lambda = z_grid * n.beta.col(d);
+    const Eigen::MatrixXd residual_events = x_events - z_events * n.beta.leftCols(d);
     for (Eigen::Index g = 0; g < x_grid.rows(); ++g) {
       if (grid_fold[size_t(g)] != fold) continue;
-      g_grid.row(g) = x_grid.row(g) - z_grid.row(g) * n.beta.leftCols(d);
-      lambda_grid[g] = z_grid.row(g).dot(n.beta.col(d));
+      g_grid.row(g) = residual_grid.row(g);
+      lambda_grid[g] = lambda[g];
     }
     for (Eigen::Index i = 0; i < x_events.rows(); ++i) {
-      if (event_fold[size_t(i)] != fold) continue;
-      g_events.row(i) = x_events.row(i) - z_events.row(i) * n.beta.leftCols(d);
+      if (event_fold[size_t(i)] == fold) g_events.row(i) = residual_events.row(i);
     }
   }
   LocalCovarianceEstimate e =
