@@ -5,6 +5,13 @@
 //    `shared_ms` (that time), `recompute_ms` (features computed again for the
 //    test, as a test without sharing would) and `speedup` (their ratio).
 //    `features_share` is the share of the recomputing run spent on features.
+//    The test uses its default (chi-bar-squared) reference.
+//  - BM_LocalCovarianceTest: the cross-fitted local covariance test on the
+//    same data and query, features shared and their quadrature-grid values
+//    already computed (a study computes them once per data set). Counters:
+//    `lr_ms`, the likelihood-ratio test timed in the same run, `ratio` (local
+//    covariance time / LR time), `first_ms` (a first query that also computes
+//    the grid and the grid features of the 5 processes).
 //  - BM_DriftTest: one drift F test on 10 processes x 100,000 samples with
 //    |A u C| = 10 (31 coefficients), from a fresh test object (filtered
 //    columns and shared moments included). Counters: `later_test_us`, the
@@ -22,6 +29,7 @@
 #include "learners/independence/drift_test.h"
 #include "learners/independence/drift_transition_test.h"
 #include "learners/independence/hawkes_lr_test.h"
+#include "learners/independence/local_covariance_test.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
 
@@ -91,6 +99,40 @@ void BM_HawkesLrTest(benchmark::State& state) {
   state.counters["features_share"] = feature_time / recompute_time;
 }
 BENCHMARK(BM_HawkesLrTest)->Unit(benchmark::kMillisecond)->Iterations(5);
+
+void BM_LocalCovarianceTest(benchmark::State& state) {
+  const sim::EventData data = HawkesData();
+  const std::vector<double> rates = learners::DefaultHawkesRates(data);
+  auto shared = std::make_shared<learners::HawkesFeatures>(
+      learners::HawkesFeatures::Create(data, rates).value());
+  const learners::TestQuery query{0, {1}, {0, 2, 3, 4}};
+  learners::HawkesLrTest(shared).Run(query);  // fills the event features
+  const double f0 = CpuSeconds();
+  learners::LocalCovarianceTest(shared).Run(query);  // fills the grid features
+  const double first_time = CpuSeconds() - f0;
+  double local_time = 0, lr_time = 0;
+  for (auto _ : state) {
+    const double t0 = CpuSeconds();
+    learners::LocalCovarianceTest local(shared);
+    benchmark::DoNotOptimize(local.Run(query));
+    const double t1 = CpuSeconds();
+    state.PauseTiming();
+    const double t2 = CpuSeconds();
+    learners::HawkesLrTest lr(shared);
+    benchmark::DoNotOptimize(lr.Run(query));
+    const double t3 = CpuSeconds();
+    state.ResumeTiming();
+    local_time += t1 - t0;
+    lr_time += t3 - t2;
+  }
+  const double n = double(state.iterations());
+  state.counters["events"] = double(data.total_events());
+  state.counters["grid_nodes"] = double(shared->QuadratureGrid().times.size());
+  state.counters["first_ms"] = 1e3 * first_time;
+  state.counters["lr_ms"] = 1e3 * lr_time / n;
+  state.counters["ratio"] = local_time / lr_time;
+}
+BENCHMARK(BM_LocalCovarianceTest)->Unit(benchmark::kMillisecond)->Iterations(5);
 
 sim::PathData DiffusionData() {
   const graph::TruthGraph truth = RandomTruth(10, 2);

@@ -93,16 +93,14 @@ void LoadEvents(const LearnOptions& o, Inputs& in) {
   EventsOrError read = ReadEventCsvFile(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
-  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
-  if (!options) {
-    throw UsageError{"unknown test '" + o.test +
-                     "' for event data (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
+  if (!o.test.empty() && !IsEventTestName(o.test)) {
+    throw UsageError{"unknown test '" + o.test + "' for event data (" + EventTestList() + ")"};
   }
   auto features =
       learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
   if (!features.ok()) throw Error{o.data, 0, 0, "", features.status().message()};
-  in.test = std::make_unique<learners::HawkesLrTest>(
-      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
+  in.test = MakeEventTest(o.test,
+                          std::make_shared<learners::HawkesFeatures>(std::move(features.value())), 1);
 }
 
 void LoadPaths(const LearnOptions& o, Inputs& in) {
@@ -232,7 +230,8 @@ const char kLearnHelp[] =
     "       locind learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]\n"
     "  --methods        list the methods (name, tab, description)\n"
     "  --method NAME    the learning method\n"
-    "  --test NAME      events: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed;\n"
+    "  --test NAME      events: hawkes-lr (default), hawkes-lr-chisq, hawkes-lr-signed,\n"
+    "                   event-local-covariance, event-local-covariance-end;\n"
     "                   paths: drift-exact-lr (default), drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
     "  --size K         screen: at most K processes in C besides the target (default 1)\n"

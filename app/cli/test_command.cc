@@ -6,10 +6,12 @@
 // Asks "is B locally independent of A1, A2 given C1, C2?" (include B in
 // --given to condition on its own past, the usual question). The data kind
 // is read from the header ("time,process" for events) unless --kind is
-// given. Tests: hawkes-lr (default for events), hawkes-lr-chibar,
-// hawkes-lr-signed; drift-exact-lr (default for paths), drift-f,
-// drift-robust-wald. --rates sets the exponential rate grid (events) or the
-// filter rates (paths; not used by drift-exact-lr).
+// given. Tests: hawkes-lr (default for events; chi-bar-squared reference),
+// hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
+// event-local-covariance, event-local-covariance-end; drift-exact-lr
+// (default for paths), drift-f, drift-robust-wald. --rates sets the
+// exponential rate grid (events) or the filter rates (paths; not used by
+// drift-exact-lr).
 // Prints the query in words (b, A and C by name, and whether b's own past is
 // in C), then target, sources, given, test, statistic, df, p_value and
 // status (with the reason when not estimable), one "key: value" per line, or
@@ -87,17 +89,14 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   EventsOrError read = ReadEventCsvFile(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   sim::EventData data = std::get<sim::EventData>(std::move(read));
-  const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
-  if (!options) {
-    throw UsageError{"unknown test '" + o.test +
-                     "' for events (hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed)"};
-  }
   std::vector<double> rates = ParseRates(o);
   if (rates.empty()) rates = learners::DefaultHawkesRates(data);
   auto features = learners::HawkesFeatures::Create(std::move(data), rates);
   if (!features.ok()) throw Error{o.data, 0, 0, "", features.status().message()};
-  return std::make_unique<learners::HawkesLrTest>(
-      std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
+  std::unique_ptr<learners::IndependenceTest> test = MakeEventTest(
+      o.test, std::make_shared<learners::HawkesFeatures>(std::move(features.value())), 1);
+  if (!test) throw UsageError{"unknown test '" + o.test + "' for events (" + EventTestList() + ")"};
+  return test;
 }
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {

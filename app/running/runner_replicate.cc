@@ -134,10 +134,9 @@ std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
   if (data.events) {
     if (!data.features) return std::string("features: not prepared");
     // Study files are validated, so the name is a known event test.
-    std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(spec.test);
-    if (!options) return "test: unknown event test '" + spec.test + "'";
-    options->seed = draws_seed;
-    return std::make_unique<learners::HawkesLrTest>(data.features, *options);
+    std::unique_ptr<learners::IndependenceTest> test = MakeEventTest(spec.test, data.features, draws_seed);
+    if (!test) return "test: unknown event test '" + spec.test + "'";
+    return test;
   }
   Result<std::unique_ptr<learners::IndependenceTest>> made = MakePathTest(spec.test, *data.paths);
   if (!made.ok()) return "test: " + made.status().message();
@@ -148,7 +147,10 @@ std::variant<std::unique_ptr<learners::IndependenceTest>, std::string> MakeTest(
 // computed once with the data (their time counts as simulation).
 void PrepareFeatures(const StudySpec& study, const std::vector<int>& chosen, Simulated& data) {
   bool needed = false;
-  for (int i : chosen) needed = needed || study.learners[i].test.rfind("hawkes", 0) == 0;
+  for (int i : chosen) {
+    const std::string& test = study.learners[i].test;
+    needed = needed || (test != "oracle" && test != "none");  // every event test reads the features
+  }
   if (!needed || !data.events) return;
   auto made = learners::HawkesFeatures::Create(*data.events, learners::DefaultHawkesRates(*data.events));
   if (!made.ok()) {

@@ -62,7 +62,11 @@ std::string Count(double v) {
 
 double BytesPerEvent(const StudySpec& study, int observed) {
   const bool grid = std::any_of(study.learners.begin(), study.learners.end(),
-                                [](const LearnerSpec& l) { return l.test == "hawkes-lr-signed"; });
+                                [](const LearnerSpec& l) {
+                                  // Tests that read the features' quadrature grid.
+                                  return l.test == "hawkes-lr-signed" ||
+                                         l.test.rfind("event-local-covariance", 0) == 0;
+                                });
   return 2 * 8 + (grid ? 4 : 1) * 8.0 * 3 * observed;
 }
 

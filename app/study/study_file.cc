@@ -13,6 +13,7 @@
 #include <yaml-cpp/yaml.h>
 
 #include "app/io/graph_file.h"
+#include "app/study/test_choice.h"
 #include "learners/methods/learner_registry.h"
 #include "sim/stability.h"
 
@@ -555,8 +556,7 @@ class StudyParser {
 }  // namespace
 
 const std::vector<std::string>& EventTests() {
-  static const std::vector<std::string> tests = {"hawkes-lr", "hawkes-lr-chibar", "hawkes-lr-signed"};
-  return tests;
+  return EventTestNames();
 }
 
 const std::vector<std::string>& PathTests() {

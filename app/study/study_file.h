@@ -25,7 +25,7 @@ StudyOrErrors ParseStudyText(const std::string& text, const std::string& file);
 StudyOrErrors ReadStudyFile(const std::string& path);
 
 // The tests accepted for each kind of data.
-const std::vector<std::string>& EventTests();  // hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed
+const std::vector<std::string>& EventTests();  // EventTestNames() of app/study/test_choice.h
 const std::vector<std::string>& PathTests();   // drift-exact-lr (default), drift-f, drift-robust-wald
 
 }  // namespace locind::app

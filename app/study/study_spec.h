@@ -72,7 +72,7 @@ struct PathProcessSpec {
 struct LearnerSpec {
   std::string label;   // unique; "method/test" unless named in the file
   std::string method;  // registry name
-  std::string test;    // oracle, hawkes-lr, hawkes-lr-chibar, hawkes-lr-signed, drift-f, drift-robust-wald, drift-exact-lr, none
+  std::string test;    // oracle, an EventTestNames() entry (app/study/test_choice.h), drift-exact-lr, drift-f, drift-robust-wald, none
   int screening_size = 1;
   double penalty = -1;
 };

@@ -1,5 +1,6 @@
 #include "app/study/test_choice.h"
 
+#include <algorithm>
 #include <fstream>
 
 #include "app/io/error.h"
@@ -8,15 +9,55 @@
 namespace locind::app {
 
 std::optional<learners::HawkesTestOptions> HawkesTestChoice(const std::string& name) {
-  learners::HawkesTestOptions options;
-  if (name == "hawkes-lr-chibar") {
-    options.boundary = learners::BoundaryReference::kChiBarSquared;
+  learners::HawkesTestOptions options;  // default: chi-bar-squared reference
+  if (name == "hawkes-lr-chisq") {
+    options.boundary = learners::BoundaryReference::kChiSquare;
   } else if (name == "hawkes-lr-signed") {
     options.link = learners::HawkesLink::kSoftplus;
-  } else if (!name.empty() && name != "hawkes-lr") {
+  } else if (!name.empty() && name != "hawkes-lr" && name != "hawkes-lr-chibar") {
     return std::nullopt;
   }
   return options;
+}
+
+std::optional<learners::LocalCovarianceOptions> LocalCovarianceChoice(const std::string& name) {
+  learners::LocalCovarianceOptions options;
+  if (name == "event-local-covariance-end") {
+    options.statistic = learners::LocalCovarianceStatistic::kEndPoint;
+  } else if (name != "event-local-covariance") {
+    return std::nullopt;
+  }
+  return options;
+}
+
+const std::vector<std::string>& EventTestNames() {
+  static const std::vector<std::string> names = {
+      "hawkes-lr",        "hawkes-lr-chibar",       "hawkes-lr-chisq",
+      "hawkes-lr-signed", "event-local-covariance", "event-local-covariance-end"};
+  return names;
+}
+
+bool IsEventTestName(const std::string& name) {
+  const std::vector<std::string>& names = EventTestNames();
+  return name.empty() || std::find(names.begin(), names.end(), name) != names.end();
+}
+
+std::string EventTestList() {
+  std::string out;
+  for (const std::string& name : EventTestNames()) out += (out.empty() ? "" : ", ") + name;
+  return out;
+}
+
+std::unique_ptr<learners::IndependenceTest> MakeEventTest(
+    const std::string& name, std::shared_ptr<learners::HawkesFeatures> features, uint64_t seed) {
+  if (std::optional<learners::HawkesTestOptions> lr = HawkesTestChoice(name)) {
+    lr->seed = seed;
+    return std::make_unique<learners::HawkesLrTest>(std::move(features), *lr);
+  }
+  if (std::optional<learners::LocalCovarianceOptions> lc = LocalCovarianceChoice(name)) {
+    return std::make_unique<learners::LocalCovarianceTest>(std::move(features), *lc);
+  }
+  return nullptr;
 }
 
 std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& name) {

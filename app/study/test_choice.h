@@ -1,10 +1,16 @@
 // The statistical tests a user can name, shared by `locind test`,
 // `locind learn` and study files, and the sniffing of a data file's kind.
 //
-//   event data: hawkes-lr (default), hawkes-lr-chibar, hawkes-lr-signed
+//   event data: hawkes-lr (default; chi-bar-squared reference, alias
+//               hawkes-lr-chibar), hawkes-lr-chisq (plain chi-squared
+//               reference, conservative), hawkes-lr-signed,
+//               event-local-covariance (cross-fitted local covariance test,
+//               supremum statistic), event-local-covariance-end (its
+//               end-point chi-squared statistic)
 //   path data:  drift-exact-lr (default), drift-f, drift-robust-wald
 #pragma once
 
+#include <cstdint>
 #include <memory>
 #include <optional>
 #include <string>
@@ -13,6 +19,7 @@
 #include "learners/independence/drift_test.h"
 #include "learners/independence/hawkes_lr_test.h"
 #include "learners/independence/independence_test.h"
+#include "learners/independence/local_covariance_test.h"
 #include "sim/path_data.h"
 
 namespace locind::app {
@@ -20,6 +27,22 @@ namespace locind::app {
 // Options for the named event test ("" is the default), or nullopt when the
 // name is not an event test.
 std::optional<learners::HawkesTestOptions> HawkesTestChoice(const std::string& name);
+
+// Options for the named local covariance test, or nullopt.
+std::optional<learners::LocalCovarianceOptions> LocalCovarianceChoice(const std::string& name);
+
+// Every event test name, the default first (for messages and study files).
+const std::vector<std::string>& EventTestNames();
+// True when `name` is one of EventTestNames() or "" (the default).
+bool IsEventTestName(const std::string& name);
+// EventTestNames() joined by ", " (for messages).
+std::string EventTestList();
+
+// The named event test on `features` ("" is the default), or nullptr when
+// the name is not an event test. `seed` keys the test's Monte Carlo draws.
+// REQUIRES: features != nullptr.
+std::unique_ptr<learners::IndependenceTest> MakeEventTest(
+    const std::string& name, std::shared_ptr<learners::HawkesFeatures> features, uint64_t seed);
 
 // Options for the named regression path test (drift-f, drift-robust-wald;
 // "" gives drift-f's), or nullopt.

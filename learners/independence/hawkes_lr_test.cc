@@ -49,7 +49,7 @@ HawkesLrTest::HawkesLrTest(std::shared_ptr<HawkesFeatures> features, HawkesTestO
 
 std::string HawkesLrTest::kind() const {
   if (options_.link == HawkesLink::kSoftplus) return "hawkes-lr-signed";
-  return options_.boundary == BoundaryReference::kChiBarSquared ? "hawkes-lr-chibar" : "hawkes-lr";
+  return options_.boundary == BoundaryReference::kChiBarSquared ? "hawkes-lr" : "hawkes-lr-chisq";
 }
 
 HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int>& covariates) {

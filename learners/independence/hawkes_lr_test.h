@@ -22,12 +22,14 @@
 //
 // Reference distribution, df = |A| * K:
 //   * signed effects: chi^2_df (the parameters are interior; Wilks 1938).
-//   * linear, BoundaryReference::kChiSquare (default): chi^2_df. Under the
-//     null theta_A = 0 lies on the boundary of theta_A >= 0, where the
-//     statistic is chi-bar-squared (Self & Liang 1987), stochastically smaller
-//     than chi^2_df, so the test is conservative (type I error below the
-//     level; measured in tests/learners/independence/hawkes_lr_calibration_test.cc).
-//   * linear, BoundaryReference::kChiBarSquared: the chi-bar-squared mixture
+//   * linear, BoundaryReference::kChiSquare (test name hawkes-lr-chisq):
+//     chi^2_df. Under the null theta_A = 0 lies on the boundary of
+//     theta_A >= 0, where the statistic is chi-bar-squared (Self & Liang
+//     1987), stochastically smaller than chi^2_df, so the test is
+//     conservative (type I error far below the level; measured in
+//     tests/learners/independence/hawkes_lr_calibration_test.cc).
+//   * linear, BoundaryReference::kChiBarSquared (default, test name
+//     hawkes-lr; hawkes-lr-chibar is an alias): the chi-bar-squared mixture
 //     with weights estimated by Monte Carlo (learners/independence/reference_distributions.h)
 //     from V = (I^{-1})_AA, I the observed information at the restricted fit
 //     over mu, the theta_C not at zero (those at zero are treated as known)
@@ -62,7 +64,7 @@ enum class BoundaryReference { kChiSquare, kChiBarSquared };
 
 struct HawkesTestOptions {
   HawkesLink link = HawkesLink::kLinear;
-  BoundaryReference boundary = BoundaryReference::kChiSquare;
+  BoundaryReference boundary = BoundaryReference::kChiBarSquared;
   int min_target_events = 10;
   int chi_bar_draws = 4000;  // Monte Carlo draws for the chi-bar-squared weights
   uint64_t seed = 1;         // seed of those draws (mixed with the query)

@@ -4,7 +4,9 @@
 #include <cmath>
 
 #include <boost/math/distributions/chi_squared.hpp>
+#include <boost/math/constants/constants.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
+#include <boost/math/distributions/normal.hpp>
 #include <boost/random/normal_distribution.hpp>
 
 namespace locind::learners {
@@ -64,6 +66,37 @@ double ChiSquaredSurvival(double df, double t) {
   if (std::isinf(t)) return t > 0 ? 0 : 1;
   if (t <= 0) return 1;
   return boost::math::cdf(boost::math::complement(boost::math::chi_squared_distribution<>(df), t));
+}
+
+// Two series for the same probability, each used where it converges fast.
+// Reflection (images): P(sup |B| >= x) = 4 sum_{k>=0} (-1)^k P(N > (2k+1) x),
+// N standard normal; terms fall like exp(-(2k+1)^2 x^2 / 2), quick for
+// x >= 1. Eigenfunction (theta) form: P(sup |B| < x) = (4/pi) sum_{k>=0}
+// (-1)^k / (2k+1) exp(-pi^2 (2k+1)^2 / (8 x^2)), quick for x < 1. Both are
+// alternating with decreasing terms, so stopping once a term is below 1e-17
+// leaves an error below that term.
+double SupAbsBrownianSurvival(double x) {
+  if (std::isnan(x)) return x;
+  if (std::isinf(x)) return x > 0 ? 0 : 1;
+  if (x <= 0) return 1;
+  const double pi = boost::math::constants::pi<double>();
+  double sum = 0;
+  if (x >= 1) {
+    const boost::math::normal_distribution<> normal;
+    for (int k = 0; k < 50; ++k) {
+      const double term = boost::math::cdf(boost::math::complement(normal, (2 * k + 1) * x));
+      sum += (k % 2 ? -term : term);
+      if (term < 1e-17) break;
+    }
+    return std::clamp(4 * sum, 0.0, 1.0);
+  }
+  for (int k = 0; k < 200; ++k) {
+    const double odd = 2 * k + 1;
+    const double term = std::exp(-pi * pi * odd * odd / (8 * x * x)) / odd;
+    sum += (k % 2 ? -term : term);
+    if (term < 1e-17) break;
+  }
+  return std::clamp(1 - 4 / pi * sum, 0.0, 1.0);
 }
 
 double FSurvival(double df1, double df2, double t) {

@@ -33,6 +33,12 @@ double ChiBarSquaredSurvival(const std::vector<double>& weights, double t);
 // for a NaN statistic (never an exception).
 double ChiSquaredSurvival(double df, double t);
 
+// P(sup_{0 <= s <= 1} |B_s| >= x) for a standard Brownian motion B, the
+// reference of the local covariance test's supremum statistic. 1 for x <= 0,
+// 0 for x = +inf, NaN for NaN. Series: Feller (1971), An Introduction to
+// Probability Theory II, Ch. X.5 (reflection principle).
+double SupAbsBrownianSurvival(double x);
+
 // P(F_{df1, df2} >= t) (Boost.Math); 1 for t <= 0, 0 for t = +inf, NaN for
 // a NaN statistic.
 double FSurvival(double df1, double df2, double t);

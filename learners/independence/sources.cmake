@@ -6,6 +6,7 @@ locind_layer(locind_independence
     learners/independence/drift_transition_test.cc
     learners/independence/hawkes_features.cc
     learners/independence/hawkes_lr_test.cc
+    learners/independence/local_covariance_test.cc
     learners/independence/oracle_test.cc
     learners/independence/projected_newton.cc
     learners/independence/reference_distributions.cc

@@ -22,6 +22,7 @@
 #include <vector>
 
 #include <boost/math/distributions/binomial.hpp>
+#include <boost/math/special_functions/beta.hpp>
 
 namespace locind::learners {
 
@@ -51,6 +52,15 @@ inline std::pair<int, int> BinomialInterval(int n, double rate, double coverage)
   while (boost::math::cdf(b, lo) < (1 - coverage) / 2) ++lo;
   while (boost::math::cdf(b, hi) < (1 + coverage) / 2) ++hi;
   return {lo, hi};
+}
+
+// Clopper-Pearson upper limit of a binomial proportion: the one-sided upper
+// `confidence` bound for k successes in n, the beta quantile
+// I^{-1}_{confidence}(k + 1, n - k) (Clopper & Pearson 1934, Biometrika
+// 26(4)); 1 when k = n.
+inline double ClopperPearsonUpper(int k, int n, double confidence) {
+  if (k >= n) return 1;
+  return boost::math::ibeta_inv(double(k) + 1, double(n - k), confidence);
 }
 
 inline int CountBelow(const std::vector<double>& p, double level) {

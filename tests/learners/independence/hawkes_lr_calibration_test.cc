@@ -81,7 +81,7 @@ std::vector<std::vector<double>> Run(Setting s, double weight, double horizon, i
     auto features = std::make_shared<HawkesFeatures>(
         HawkesFeatures::Create(std::move(d), {0.5, 2.0, 8.0}).value());
     HawkesLrTest variants[] = {
-        HawkesLrTest(features),
+        HawkesLrTest(features, {.boundary = BoundaryReference::kChiSquare}),
         HawkesLrTest(features, {.boundary = BoundaryReference::kChiBarSquared, .chi_bar_draws = 2000}),
         HawkesLrTest(features, {.link = HawkesLink::kSoftplus})};
     for (int v = 0; v < 3; ++v) {

@@ -115,8 +115,8 @@ TEST_CASE("a strong effect is found and an absent one is not") {
 TEST_CASE("all variants agree that the statistic is a likelihood ratio") {
   sim::EventData d = Draw(0.3, 400, 4);
   auto features = Features(d);
-  HawkesLrTest plain(features);
-  HawkesLrTest chibar(features, {.boundary = BoundaryReference::kChiBarSquared});
+  HawkesLrTest plain(features, {.boundary = BoundaryReference::kChiSquare});
+  HawkesLrTest chibar(features);  // the default reference is chi-bar-squared
   HawkesLrTest signed_effects(features, {.link = HawkesLink::kSoftplus});
   const TestQuery q{1, {0}, {1}};
   const TestResult a = plain.Run(q), b = chibar.Run(q), c = signed_effects.Run(q);
@@ -130,8 +130,8 @@ TEST_CASE("all variants agree that the statistic is a likelihood ratio") {
   CHECK(c.df == a.df);
   // With positive effects far from zero intensity, softplus ~ linear.
   CHECK(c.statistic == doctest::Approx(a.statistic).epsilon(0.15));
-  CHECK(plain.kind() == "hawkes-lr");
-  CHECK(chibar.kind() == "hawkes-lr-chibar");
+  CHECK(plain.kind() == "hawkes-lr-chisq");
+  CHECK(chibar.kind() == "hawkes-lr");
   CHECK(signed_effects.kind() == "hawkes-lr-signed");
 }
 

@@ -1,6 +1,7 @@
 #include "learners/independence/reference_distributions.h"
 
 #include <cmath>
+#include <limits>
 
 #include <doctest/doctest.h>
 
@@ -68,3 +69,21 @@ TEST_CASE("the weights are reproducible for a seed") {
 
 }  // namespace
 }  // namespace locind::learners
+
+TEST_CASE("tail of the supremum of |Brownian motion| on [0, 1]") {
+  using locind::learners::SupAbsBrownianSurvival;
+  // 2.2414 is the 5% critical value of sup |B| on [0, 1] (value from memory);
+  // SciPy 1.10: 4 * (norm.sf(2.2414) - norm.sf(3 * 2.2414)) = 0.0500004.
+  CHECK(SupAbsBrownianSurvival(2.2414) == doctest::Approx(0.0500004).epsilon(1e-5));
+  // SciPy 1.10: 4 * (norm.sf(1.5) - norm.sf(4.5) + norm.sf(7.5)) = 0.2672152.
+  CHECK(SupAbsBrownianSurvival(1.5) == doctest::Approx(0.2672152).epsilon(1e-6));
+  // Below 1 the theta series is used; NumPy sum of its first 50 terms at
+  // x = 0.5: 0.9908430 (the two series agree to 1e-15 at 0.5, 1, 1.5, 3).
+  CHECK(SupAbsBrownianSurvival(0.5) == doctest::Approx(0.9908430).epsilon(1e-6));
+  // Both sides of the switch at x = 1 agree (continuity of the two series).
+  CHECK(SupAbsBrownianSurvival(1 - 1e-12) == doctest::Approx(SupAbsBrownianSurvival(1.0)).epsilon(1e-9));
+  CHECK(SupAbsBrownianSurvival(0) == 1);
+  CHECK(SupAbsBrownianSurvival(-1) == 1);
+  CHECK(SupAbsBrownianSurvival(std::numeric_limits<double>::infinity()) == 0);
+  CHECK(std::isnan(SupAbsBrownianSurvival(std::nan(""))));
+}

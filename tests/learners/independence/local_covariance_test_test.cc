@@ -1,0 +1,134 @@
+#include "learners/independence/local_covariance_test.h"
+
+#include <algorithm>
+#include <cmath>
+#include <vector>
+
+#include <doctest/doctest.h>
+
+#include "base/random_stream.h"
+#include "graph/dmg.h"
+#include "sim/hawkes_model.h"
+#include "sim/hawkes_simulator.h"
+
+namespace locind::learners {
+namespace {
+
+// A draw of a -> b (a, b self-exciting) on [0, horizon).
+sim::EventData Draw(double weight, double horizon, uint64_t seed) {
+  graph::Dmg g({"a", "b"});
+  g.AddDirected(0, 0);
+  g.AddDirected(1, 1);
+  if (weight > 0) g.AddDirected(0, 1);
+  sim::HawkesModel m = sim::ExponentialHawkes(graph::TruthGraph{g, {}}, 0.5, weight, 2.0, 0.2);
+  sim::HawkesRunOptions o;
+  o.horizon = horizon;
+  o.burn_in = 50;
+  base::RandomStream random(seed);
+  return sim::SimulateHawkes(m, o, random).value();
+}
+
+std::shared_ptr<HawkesFeatures> Features(sim::EventData d, std::vector<double> rates) {
+  return std::make_shared<HawkesFeatures>(HawkesFeatures::Create(std::move(d), rates).value());
+}
+
+// x(t) = sum_{s < t} r exp(-r (t - s)) by a direct sum.
+double Filtered(const std::vector<double>& events, double r, double t) {
+  double x = 0;
+  for (double s : events) {
+    if (s < t) x += r * std::exp(-r * (t - s));
+  }
+  return x;
+}
+
+TEST_CASE("with an empty C the estimate matches a direct computation") {
+  // With C empty the basis is the constant: on each fold the projection of
+  // x_a is its time average over the other fold and the intensity is the
+  // other fold's event count over its length. The direct version below uses
+  // plain sums and the closed-form integral of each exponential over each
+  // block (no recursion, no quadrature grid).
+  const sim::EventData d = Draw(0.4, 200, 5);
+  const double r = 1.0;
+  LocalCovarianceTest test(Features(d, {r}), {.block_time_constants = 10});
+  const Result<LocalCovarianceEstimate> e = test.Estimate({1, {0}, {}});
+  REQUIRE(e.ok());
+  CHECK(e.value().blocks == 20);  // 200 * rate 1 / 10 time constants
+  // Block boundaries as documented: the first event of any process at or
+  // after k * 10.
+  std::vector<double> all = d.times[0];
+  all.insert(all.end(), d.times[1].begin(), d.times[1].end());
+  std::sort(all.begin(), all.end());
+  std::vector<double> cut = {d.start};
+  for (int k = 1; k < 20; ++k) cut.push_back(*std::lower_bound(all.begin(), all.end(), d.start + k * 10.0));
+  cut.push_back(d.end);
+  const auto fold = [&](double t) {
+    return int((std::upper_bound(cut.begin() + 1, cut.end() - 1, t) - cut.begin() - 1) % 2);
+  };
+  double x_time[2] = {0, 0}, length[2] = {0, 0};
+  int count[2] = {0, 0};
+  for (int k = 0; k < 20; ++k) {
+    const double u = cut[size_t(k)], v = cut[size_t(k) + 1];
+    for (double s : d.times[0]) {
+      if (s < v) x_time[k % 2] += std::exp(-r * (std::max(u, s) - s)) - std::exp(-r * (v - s));
+    }
+    length[k % 2] += v - u;
+  }
+  for (double t : d.times[1]) ++count[fold(t)];
+  double gamma = 0, variance = 0;
+  for (double t : d.times[1]) {
+    const int other = 1 - fold(t);
+    const double g = Filtered(d.times[0], r, t) - x_time[other] / length[other];
+    gamma += g;
+    variance += g * g;
+  }
+  for (int m = 0; m < 2; ++m) {
+    const double mean_other = x_time[1 - m] / length[1 - m];
+    const double rate_other = count[1 - m] / length[1 - m];
+    gamma -= rate_other * (x_time[m] - mean_other * length[m]);
+  }
+  CHECK(e.value().gamma[0] == doctest::Approx(gamma).epsilon(1e-6));
+  CHECK(e.value().variance(0, 0) == doctest::Approx(variance).epsilon(1e-6));
+  CHECK(e.value().supremum[0] >= std::abs(e.value().gamma[0]));
+}
+
+TEST_CASE("a strong effect is found, an absent one is not") {
+  const sim::EventData d = Draw(0.5, 1000, 3);
+  auto features = Features(d, DefaultHawkesRates(d));
+  for (LocalCovarianceStatistic s : {LocalCovarianceStatistic::kSupremum, LocalCovarianceStatistic::kEndPoint}) {
+    LocalCovarianceTest test(features, {.statistic = s});
+    const TestResult r = test.Run({1, {0}, {1}});
+    CHECK(r.status == TestStatus::kOk);
+    CHECK(r.df == 3);
+    CHECK(r.p_value < 1e-6);
+    const TestResult back = test.Run({0, {1}, {0}});
+    CHECK(back.status == TestStatus::kOk);
+    CHECK(back.p_value > 0.001);
+  }
+}
+
+TEST_CASE("names, caching and not-estimable results") {
+  const sim::EventData d = Draw(0.3, 40, 9);
+  auto features = Features(d, {0.5, 2.0, 8.0});
+  LocalCovarianceTest sup(features);
+  LocalCovarianceTest end(features, {.statistic = LocalCovarianceStatistic::kEndPoint});
+  CHECK(sup.kind() == "event-local-covariance");
+  CHECK(end.kind() == "event-local-covariance-end");
+  LocalCovarianceTest strict(features, {.min_target_events = 1000});
+  const TestResult few = strict.Run({1, {0}, {1}});
+  CHECK(few.status == TestStatus::kNotEstimable);
+  CHECK(few.reason.rfind("too few events", 0) == 0);
+  CHECK(few.p_value == 1);
+  sup.Run({1, {0}, {1}});
+  sup.Run({1, {0}, {1}});
+  CHECK(sup.distinct_queries() == 1);
+
+  sim::EventData silent = d;
+  silent.times[0].clear();
+  LocalCovarianceTest none(Features(silent, {0.5, 2.0, 8.0}));
+  const TestResult r = none.Run({1, {0}, {1}});
+  CHECK(r.status == TestStatus::kNotEstimable);
+  CHECK(r.reason.rfind("singular design", 0) == 0);
+}
+
+}  // namespace
+}  // namespace locind::learners
