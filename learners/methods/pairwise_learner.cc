@@ -15,15 +15,27 @@ Result<LearnResult> PairwiseLearner::Learn(const LearnInput& input) {
   TestRunner runner(*input.test, input.level);
   const graph::Mask all = graph::AllNodes(n);
   graph::BitGraph g(n);
+  std::vector<EdgeDecision> decisions;
   for (int b = 0; b < n; ++b) {
     for (int a = 0; a < n; ++a) {
-      if (runner.Dependent(a, b, all & ~graph::Bit(a))) g.Add({a, b, graph::EdgeKind::kDirected});
+      const graph::Edge e{a, b, graph::EdgeKind::kDirected};
+      const graph::Mask given = all & ~graph::Bit(a);
+      // Not estimable is no separation: the edge stays (undecided).
+      if (runner.Dependent(a, b, given)) {
+        g.Add(e);
+        decisions.push_back(MakeDecision(e, true, "test", "dependent"));
+      } else {
+        decisions.push_back(MakeDecision(e, false, "test", "separated",
+                                         {runner.Witness(a, b, given, false)}));
+      }
     }
   }
   LearnResult result;
   result.method = "pairwise";
   result.graph = graph::ToDmg(g, input.test->names());
   runner.Fill(result);
+  result.decisions = std::move(decisions);
+  FinishDecisions(result);
   result.seconds = SecondsSince(start);
   return result;
 }
