@@ -14,6 +14,8 @@ CellSummary Summarize(const std::vector<ReplicateRecord>& records, base::RandomS
       continue;
     }
     s.totals += r.score.total;
+    s.not_estimable += r.not_estimable;  // why edges were lost
+    s.attribution += r.attribution;
     recovered += r.score.class_recovered ? 1 : 0;
     hamming.push_back(r.score.hamming);
     tests.push_back(r.tests);

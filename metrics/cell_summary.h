@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "base/random_stream.h"
+#include "metrics/error_attribution.h"
 #include "metrics/intervals.h"
 #include "metrics/replicate_score.h"
 
@@ -24,6 +25,9 @@ struct ReplicateRecord {
   double tests = 0;
   double largest_given = 0;
   double seconds = 0;
+  // --- Why edges were lost (metrics/error_attribution.h) ---
+  int not_estimable = 0;            // tests that could not be computed
+  ErrorAttribution attribution;     // counts only
 };
 
 struct CellSummary {
@@ -37,6 +41,9 @@ struct CellSummary {
   Interval tests;
   Interval largest_given;
   Interval seconds;
+  // --- Why edges were lost: sums over the replicates that ran ---
+  int not_estimable = 0;
+  ErrorAttribution attribution;  // counts only
 };
 
 // `random` drives the bootstrap resamples (key it by study seed and cell).

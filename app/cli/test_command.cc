@@ -151,29 +151,40 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
            const learners::TestResult& r, bool json, std::ostream& out) {
   const std::vector<std::string>& names = test.names();
   const bool ok = r.status == learners::TestStatus::kOk;
+  // A result that could not be computed has no statistic, df or p-value
+  // (the in-memory p = 1 is not evidence of independence): empty / null.
+  auto number = [ok, json](double v) {
+    return ok ? base::FormatNumber(v) : std::string(json ? "null" : "");
+  };
   if (json) {
     out << "{\"target\": " << JsonString(names[q.target])
         << ", \"sources\": " << NameList(q.sources, names, true)
         << ", \"given\": " << NameList(q.given, names, true) << ", \"test\": "
-        << JsonString(test.kind()) << ", \"statistic\": " << base::FormatNumber(r.statistic)
-        << ", \"df\": " << base::FormatNumber(r.df) << ", \"p_value\": " << base::FormatNumber(r.p_value)
+        << JsonString(test.kind()) << ", \"statistic\": " << number(r.statistic)
+        << ", \"df\": " << number(r.df) << ", \"p_value\": " << number(r.p_value)
         << ", \"status\": " << (ok ? "\"ok\"" : "\"not estimable\"")
         << ", \"reason\": " << JsonString(r.reason) << "}\n";
     return;
   }
   out << "target: " << names[q.target] << "\nsources: " << NameList(q.sources, names, false)
       << "\ngiven: " << NameList(q.given, names, false) << "\ntest: " << test.kind()
-      << "\nstatistic: " << base::FormatNumber(r.statistic) << "\ndf: " << base::FormatNumber(r.df)
-      << "\np_value: " << base::FormatNumber(r.p_value)
+      << "\nstatistic: " << number(r.statistic) << "\ndf: " << number(r.df)
+      << "\np_value: " << number(r.p_value)
       << "\nstatus: " << (ok ? "ok" : "not estimable: " + r.reason) << "\n";
 }
 
-int Test(const std::vector<std::string>& args, std::ostream& out) {
+int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   const TestOptions o = ParseOptions(args);
   const bool events = o.kind.empty() ? LooksLikeEventFile(o.data) : o.kind == "events";
   std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o) : PathTest(o);
   const learners::TestQuery query = MakeQuery(*test, o);
-  Print(*test, query, test->Run(query), o.json, out);
+  const learners::TestResult result = test->Run(query);
+  Print(*test, query, result, o.json, out);
+  if (result.status != learners::TestStatus::kOk) {
+    err << "locind test: warning: 1 of 1 tests not estimable (neither separation nor "
+           "dependence): "
+        << (result.reason.empty() ? "no reason given" : result.reason) << " (1)\n";
+  }
   return kExitOk;
 }
 
@@ -181,7 +192,7 @@ int Test(const std::vector<std::string>& args, std::ostream& out) {
 
 int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   return GuardCommand("test", err, [&] {
-    return Test(args, out);
+    return Test(args, out, err);
   });
 }
 
