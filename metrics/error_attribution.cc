@@ -47,7 +47,7 @@ std::optional<TestRecord> EarliestError(const std::vector<TestRecord>& log,
 AttributedEdge AttributeMissed(const graph::Edge& e, const EdgeDecision* d, TestJudge& judge,
                                const std::vector<TestRecord>& log,
                                const std::vector<TestVerdict>& verdicts) {
-  AttributedEdge a{e, true, ErrorCause::kReach, "", std::nullopt};
+  AttributedEdge a{e, true, ErrorCause::kReach, std::string(), std::nullopt};
   if (d == nullptr) return a;
   a.rule = d->rule;
   std::vector<TestVerdict> judged;
@@ -77,7 +77,8 @@ bool UsesOtherPairs(const EdgeDecision* d) {
 AttributedEdge AttributeFalse(const graph::Edge& e, const EdgeDecision* d,
                               const std::vector<TestRecord>& log,
                               const std::vector<TestVerdict>& verdicts) {
-  AttributedEdge a{e, false, ErrorCause::kReach, d ? d->rule : "", std::nullopt};
+  AttributedEdge a{e, false, ErrorCause::kReach, std::string(), std::nullopt};
+  if (d != nullptr) a.rule = d->rule;
   std::optional<TestRecord> unknown;
   for (size_t i = 0; i < log.size(); ++i) {
     if (!OwnPair(e, log[i])) continue;

@@ -30,6 +30,14 @@ Result<LearnResult> PairwiseLearner::Learn(const LearnInput& input) {
       }
     }
   }
+  // Bidirected edges are outside the method: recorded so that every edge of
+  // the truth has a record saying why it is missing.
+  for (int a = 0; a < n; ++a) {
+    for (int b = a + 1; b < n; ++b) {
+      decisions.push_back(
+          MakeDecision({a, b, graph::EdgeKind::kBidirected}, false, "test", "never considered"));
+    }
+  }
   LearnResult result;
   result.method = "pairwise";
   result.graph = graph::ToDmg(g, input.test->names());

@@ -196,6 +196,12 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
                                               kept ? "nonzero coefficient" : "zero coefficient"));
     }
   }
+  for (int a = 0; a < n; ++a) {
+    for (int b = a + 1; b < n; ++b) {
+      result.decisions.push_back(
+          MakeDecision({a, b, graph::EdgeKind::kBidirected}, false, "fit", "never considered"));
+    }
+  }
   std::ostringstream note;
   note << "penalty scale " << scale_;
   result.note = note.str();

@@ -2,6 +2,7 @@
 // equivalence graph, the output files, data runs and bad input.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -50,13 +51,16 @@ TEST_CASE("--help prints the usage") {
   CHECK(o.out.find("--oracle FILE") != std::string::npos);
 }
 
-TEST_CASE("--oracle --json prints exactly the class of `graph class --json`") {
+TEST_CASE("--oracle --json prints exactly the class of `graph class --json`, plus decisions") {
   std::ostringstream out, err;
   REQUIRE(RunGraphCommand({"class", kExample, "--json"}, out, err) == kExitOk);
+  const std::string graph = out.str().substr(0, out.str().rfind('}'));
   for (const char* method : {"maximal-search", "exhaustive"}) {
     const Outcome o = Learn({"--oracle", kExample, "--method", method, "--json"});
     CHECK(o.code == kExitOk);
-    CHECK(o.out == out.str());
+    CHECK(o.out.rfind(graph + ", \"decisions\": [{\"edge\": ", 0) == 0);
+    CHECK(o.out.substr(o.out.size() - 3) == "]}\n");
+    CHECK(o.err.empty());  // the oracle computes every test
   }
 }
 
@@ -78,9 +82,19 @@ TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
   CHECK(ReadAll(dir / "graph.dot").find("digraph") != std::string::npos);
   CHECK(ReadAll(dir / "graph.svg").find("<svg") != std::string::npos);
   const std::string log = ReadAll(dir / "tests.csv");
-  CHECK(log.rfind("target,sources,given,statistic,df,p_value,status,decision\n", 0) == 0);
+  CHECK(log.rfind("target,sources,given,statistic,df,p_value,status,decision,reason\n", 0) == 0);
   // The first test: is a independent of its own past given nothing? No.
-  CHECK(log.find("\na,a,,1,0,0,ok,dependent\n") != std::string::npos);
+  CHECK(log.find("\na,a,,1,0,0,ok,dependent,\n") != std::string::npos);
+  // decisions.csv: one row per candidate edge of screen (9 directed, 3
+  // bidirected over a, b, c). In the projection (a -> b, b -> b, c -> b,
+  // a <-> c) b -> b is a loop of the truth, kept; b is separated from a given
+  // {a, c} (the only walk, b <- c <-> a, is blocked at c), so b -> a is
+  // removed with a separation of target a from source b as its witness.
+  const std::string decisions = ReadAll(dir / "decisions.csv");
+  CHECK(decisions.rfind("edge,mark,decision,decision_phase,decision_rule,witness_target,", 0) == 0);
+  CHECK(std::count(decisions.begin(), decisions.end(), '\n') == 1 + 9 + 3);
+  CHECK(decisions.find("\nb -> b,,kept,screen,inseparable,") != std::string::npos);
+  CHECK(decisions.find("\nb -> a,,removed,screen,separated,a,b,") != std::string::npos);
   std::filesystem::remove_all(dir);
 }
 

@@ -23,9 +23,10 @@ struct Folder {
     fs::create_directories(dir);
     Write("summary.csv", SummaryHeader() + "\n" +
                              "0,250,0.05,2,0.6,pairwise/hawkes-lr,8,1,0.5,0.25,0.75,,,,0,0,0.3,1.5,1,2,12,11,13,1,"
-                             "1,1,10,5,2,0,6,0,0.01,0.005,0.02\n");
+                             "1,1,10,5,2,0,6,0,0.01,0.005,0.02,0,0,0,0,0,0,0,0,0,0,0\n");
     Write("edges.csv", EdgeHeader() + "\n" +
-                           "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,b,a,b,3.2,0.01,ok,dependent\n");
+                           "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,kept,test,dependent,b,a,b,3.2,"
+                           "0.01,ok,dependent,test,,,\n");
     Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68\n");
   }
   ~Folder() { fs::remove_all(dir); }

@@ -26,13 +26,18 @@ TEST_CASE("replicates.csv header") {
         "cell,replicate,truth,length,level,hidden_count,stationarity_target,stationarity_value,"
         "learner,method,test,status,message,observed_points" + groups +
         ",power,false_edge_rate,hamming,class_recovered,tests,not_estimable,largest_given,"
-        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds");
+        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds,"
+        "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
+        "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
+        "false_reach");
 }
 
 TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
   CHECK(EdgeHeader() ==
         "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark,"
-        "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision");
+        "decision,decision_phase,decision_rule,witness_target,witness_sources,witness_given,"
+        "witness_statistic,witness_p_value,witness_status,witness_decision,witness_origin,"
+        "more_witnesses,error_cause,error_test");
   CHECK(NullTestHeader() ==
         "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
         "test_statistic,test_df,test_p_value");
@@ -42,7 +47,10 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "class_recovery,class_recovery_low,class_recovery_high,hamming,hamming_low,hamming_high,"
         "tests,tests_low,tests_high,largest_given,largest_given_low,largest_given_high,"
         "solid,solid_found,dashed,dashed_found,reported,false_edges,"
-        "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high");
+        "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,not_estimable,"
+        "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
+        "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
+        "false_reach");
 }
 
 TEST_CASE("every documented column is in results/README.md") {
@@ -85,11 +93,18 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   r.tests = 40;
   r.largest_given = 2;
   r.timing_learn_seconds = 0.123456789;
+  // The attribution columns travel too (journal, --part merge, MPI).
+  r.attribution.tests.false_separation = 6;
+  r.attribution.missed_propagation = 2;
+  r.attribution.false_not_estimable = 1;
   const std::string line = FormatReplicateRow(r);
   CHECK(line.find(",0.3333333333333333,,4,1,40,") != std::string::npos);  // NaN is an empty field
+  CHECK(line.substr(line.size() - 20) == ",0,6,0,0,2,0,0,0,1,0");
   const std::optional<ReplicateRow> back = ParseReplicateRow(line);
   REQUIRE(back.has_value());
   CHECK(FormatReplicateRow(*back) == line);
+  CHECK(back->attribution.missed_propagation == 2);
+  CHECK(back->attribution.false_not_estimable == 1);
   CHECK(back->score.by_group[1].solid == 3);
   CHECK(std::isnan(back->score.false_edge_rate));
 
