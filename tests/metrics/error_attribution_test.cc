@@ -67,6 +67,10 @@ graph::TruthGraph Chain(bool with_edge) {
   return graph::TruthGraph{g, {}};
 }
 
+// Every ordered pair (loops included) and every unordered pair: one
+// decision record each, whatever the method.
+size_t CandidateEdges(int n) { return static_cast<size_t>(n * n + n * (n - 1) / 2); }
+
 struct Run {
   TruthClass truth;
   learners::LearnResult result;
@@ -205,6 +209,7 @@ TEST_CASE("maximal-search: one wrong pair explains every lost edge; causes add u
       return std::nullopt;
     });
     const ReplicateScore score = ScoreGraph(r.truth, r.result.graph);
+    CHECK(r.result.decisions.size() == CandidateEdges(r.result.graph.size()));
     CHECK(r.attribution.missed() == score.total.missed_solid);
     CHECK(r.attribution.false_edges() == score.total.false_edges);
     CHECK(r.attribution.missed_reach == 0);
@@ -242,6 +247,7 @@ TEST_CASE("maximal-search and exhaustive: not-estimable tests never lose an edge
     for (learners::Learner* method : {static_cast<learners::Learner*>(&search),
                                       static_cast<learners::Learner*>(&exhaustive)}) {
       const Run r = RunMethod(*method, truth, script);
+      CHECK(r.result.decisions.size() == CandidateEdges(r.result.graph.size()));
       CHECK(r.attribution.missed() == 0);
       CHECK(r.attribution.false_edges() == ScoreGraph(r.truth, r.result.graph).total.false_edges);
       CHECK(r.attribution.false_edges() == r.attribution.false_not_estimable);
