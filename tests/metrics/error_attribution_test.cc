@@ -198,7 +198,7 @@ TEST_CASE("pairwise never considers bidirected edges: a missed one is the method
 // wrong answers, so every missed solid edge is caused by one of them (its own
 // test or propagation), none by the method's reach, and every blamed test is
 // about that pair. Per replicate the causes add up.
-TEST_CASE("maximal-search: one wrong pair explains every lost edge; causes add up") {
+TEST_CASE("maximal-search: one wrong pair explains every lost edge, and causes add up") {
   int graphs_with_errors = 0;
   int propagated = 0;
   for (int i = 0; i < 300; ++i) {
