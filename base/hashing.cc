@@ -10,7 +10,7 @@ uint64_t MixBits(uint64_t x) {
 }
 
 uint64_t HashText(std::string_view text) {
-  uint64_t h = 1469598103934665603ull;  // FNV offset basis
+  uint64_t h = 14695981039346656037ull;  // FNV-1a 64 offset basis, 0xcbf29ce484222325
   for (unsigned char ch : text) {
     h ^= ch;
     h *= 1099511628211ull;  // FNV prime

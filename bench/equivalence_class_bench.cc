@@ -20,7 +20,7 @@ namespace {
 using namespace locind::graph;
 
 BitGraph ProjectedGraph(int observed, uint64_t seed) {
-  base::RandomStream random(seed);
+  locind::base::RandomStream random(seed);
   RandomGraphOptions o;
   o.nodes = observed + 2;
   o.expected_in_degree = 1.5;

@@ -16,7 +16,7 @@ namespace {
 using namespace locind::graph;
 
 BitGraph SparseGraph(int n, uint64_t seed) {
-  base::RandomStream random(seed);
+  locind::base::RandomStream random(seed);
   RandomGraphOptions o;
   o.nodes = n;
   o.expected_in_degree = 2;
@@ -43,7 +43,7 @@ struct Query {
 };
 
 std::vector<Query> Queries(int n, uint64_t seed) {
-  base::RandomStream random(seed);
+  locind::base::RandomStream random(seed);
   std::vector<Query> out;
   for (int i = 0; i < 1024; ++i) {
     Query q{static_cast<int>(random.Uniform() * n), 0};

@@ -1,11 +1,26 @@
 #include "app/cli/command_guard.h"
 
+#include <algorithm>
 #include <boost/program_options/errors.hpp>
 #include <sstream>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 namespace locind::app {
+namespace {
+
+// A located problem prints as its own FILE:LINE:COLUMN line; anything else
+// is prefixed with the command ("locind NAME: message").
+void Print(const std::string& name, std::ostream& err, const Error& e) {
+  if (e.file.empty()) {
+    err << "locind " << name << ": " << e.ToString() << "\n";
+  } else {
+    err << e.ToString() << "\n";
+  }
+}
+
+}  // namespace
+
 
 std::vector<std::string> SplitList(const std::string& text) {
   std::vector<std::string> out;
@@ -20,22 +35,23 @@ int GuardCommand(const std::string& name, std::ostream& err, const std::function
                  const std::string& usage) {
   try {
     return body();
-  } catch (const InputError& e) {
-    err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const InputErrors& errors) {
-    for (const InputError& e : errors) err << e.ToString() << "\n";
-    return kExitInputError;
-  } catch (const UsageError& e) {
-    err << "locind " << name << ": " << e.message << "\n";
-    return kExitInputError;
+  } catch (const Errors& errors) {
+    int code = kExitOk;
+    for (const Error& e : errors) {
+      Print(name, err, e);
+      code = std::max(code, ExitCode(e.kind));
+    }
+    return code == kExitOk ? kExitInputError : code;
+  } catch (const Error& e) {
+    Print(name, err, e);
+    return ExitCode(e.kind);
   } catch (const boost::program_options::error& e) {
     err << "locind " << name << ": " << e.what() << "\n";
     if (!usage.empty()) err << usage << "\n";
-    return kExitInputError;
+    return ExitCode(ErrorKind::kBadUsage);
   } catch (const std::exception& e) {
-    err << "locind " << name << ": " << e.what() << "\n";
-    return kExitFailure;
+    Print(name, err, InternalError(e.what()));
+    return ExitCode(ErrorKind::kInternal);
   }
 }
 

@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "app/io/atomic_file.h"
+#include "app/io/error.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
 #include "app/io/graph_file.h"
@@ -53,10 +54,10 @@ struct Loaded {
 
 Loaded LoadProjected(const std::string& path) {
   GraphOrError read = ReadGraphFile(path);
-  if (auto* e = std::get_if<InputError>(&read)) throw *e;
+  if (auto* e = std::get_if<Error>(&read)) throw *e;
   TruthGraph truth = std::get<TruthGraph>(std::move(read));
   Result<Dmg> projected = graph::LatentProjection(truth.graph, truth.hidden);
-  if (!projected.ok()) throw InputError{path, 0, 0, "", projected.status().message()};
+  if (!projected.ok()) throw Error{path, 0, 0, "", projected.status().message()};
   return Loaded{std::move(truth), std::move(*projected)};
 }
 
@@ -65,10 +66,10 @@ graph::Mask NodeSet(const Loaded& g, const std::string& list, const std::string&
   graph::Mask set = 0;
   for (const std::string& name : SplitList(list)) {
     if (auto v = g.truth.graph.index(name); v && g.truth.IsHidden(*v)) {
-      throw InputError{path, 0, 0, option, "node '" + name + "' is hidden"};
+      throw Error{path, 0, 0, option, "node '" + name + "' is hidden"};
     }
     auto v = g.projected.index(name);
-    if (!v) throw InputError{path, 0, 0, option, "unknown node '" + name + "'"};
+    if (!v) throw Error{path, 0, 0, option, "unknown node '" + name + "'"};
     set |= graph::Bit(*v);
   }
   return set;
@@ -107,7 +108,7 @@ int Project(const std::vector<std::string>& args, std::ostream& out) {
 
 graph::NamedEquivalenceGraph ClassOf(const Loaded& g, const std::string& path) {
   auto eg = graph::ComputeEquivalenceGraph(g.projected);
-  if (!eg.ok()) throw InputError{path, 0, 0, "", eg.status().message()};
+  if (!eg.ok()) throw Error{path, 0, 0, "", eg.status().message()};
   return std::move(eg.value());
 }
 
@@ -148,14 +149,14 @@ int Equivalent(const std::vector<std::string>& args, std::ostream& out) {
   std::vector<int> order;
   for (const std::string& name : g1.projected.names()) {
     auto v = g2.projected.index(name);
-    if (!v) throw InputError{files[1], 0, 0, "nodes", "observed node '" + name + "' is missing"};
+    if (!v) throw Error{files[1], 0, 0, "nodes", "observed node '" + name + "' is missing"};
     order.push_back(*v);
   }
   if (g2.projected.size() != g1.projected.size()) {
-    throw InputError{files[1], 0, 0, "nodes", "the graphs have different observed nodes"};
+    throw Error{files[1], 0, 0, "nodes", "the graphs have different observed nodes"};
   }
   Result<bool> same = graph::MarkovEquivalent(g1.projected, g2.projected.Induced(order));
-  if (!same.ok()) throw InputError{files[0], 0, 0, "", same.status().message()};
+  if (!same.ok()) throw Error{files[0], 0, 0, "", same.status().message()};
   out << (*same ? "equivalent" : "not equivalent") << "\n";
   return kExitOk;
 }
@@ -185,11 +186,11 @@ int Draw(const std::vector<std::string>& args, std::ostream& out) {
   std::string content = dot;
   if (svg) {
     Result<std::string> rendered = RenderSvg(dot);
-    if (!rendered.ok()) throw std::runtime_error(rendered.status().message());
+    if (!rendered.ok()) throw InternalError(rendered.status().message());
     content = *rendered;
   }
   Status written = WriteFileAtomically(target, content);
-  if (!written.ok()) throw std::runtime_error(written.message());
+  if (!written.ok()) throw FileSystemError(written.message());
   out << "wrote " << target << "\n";
   return kExitOk;
 }

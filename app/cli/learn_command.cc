@@ -19,6 +19,7 @@
 #include <sstream>
 
 #include "app/io/atomic_file.h"
+#include "app/io/error.h"
 #include "app/results/decision_rows.h"
 #include "app/results/results_rows.h"
 #include "base/number_format.h"
@@ -94,7 +95,7 @@ struct Inputs {
 
 void LoadEvents(const LearnOptions& o, Inputs& in) {
   EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
   const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
   if (!options) {
@@ -103,21 +104,21 @@ void LoadEvents(const LearnOptions& o, Inputs& in) {
   }
   auto features =
       learners::HawkesFeatures::Create(*in.events, learners::DefaultHawkesRates(*in.events));
-  if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
+  if (!features.ok()) throw Error{o.data, 0, 0, "", features.status().message()};
   in.test = std::make_unique<learners::HawkesLrTest>(
       std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
 }
 
 void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathCsvFile(o.data);
-  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
   const std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
   if (!options) {
     throw UsageError{"unknown test '" + o.test + "' for path data (drift-f, drift-robust-wald)"};
   }
   auto made = learners::DriftTest::Create(*in.paths, *options);
-  if (!made.ok()) throw InputError{o.data, 0, 0, "", made.status().message()};
+  if (!made.ok()) throw Error{o.data, 0, 0, "", made.status().message()};
   in.test = std::make_unique<learners::DriftTest>(std::move(made.value()));
 }
 
@@ -128,10 +129,10 @@ Inputs LoadInputs(const LearnOptions& o) {
       throw UsageError{"--oracle runs the oracle test only"};
     }
     GraphOrError read = ReadGraphFile(o.oracle);
-    if (auto* e = std::get_if<InputError>(&read)) throw *e;
+    if (auto* e = std::get_if<Error>(&read)) throw *e;
     Result<learners::OracleTest> oracle =
         learners::OracleTest::FromTruth(std::get<graph::TruthGraph>(read));
-    if (!oracle.ok()) throw InputError{o.oracle, 0, 0, "", oracle.status().message()};
+    if (!oracle.ok()) throw Error{o.oracle, 0, 0, "", oracle.status().message()};
     in.test = std::make_unique<learners::OracleTest>(std::move(oracle.value()));
     return in;
   }
@@ -169,13 +170,13 @@ std::string TestLogCsv(const LearnResult& r) {
 void WriteOutputs(const LearnResult& r, const std::string& dir) {
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
-  if (ec) throw std::runtime_error("cannot create " + dir + ": " + ec.message());
+  if (ec) throw FileSystemError("cannot create " + dir + ": " + ec.message());
   graph::DotOptions style;
   style.dashed = learners::DashedEdges(r);
   style.title = r.method + " (" + r.test_kind + ")";
   const std::string dot = graph::ToDot(r.graph, style);
   Result<std::string> svg = RenderSvg(dot);
-  if (!svg.ok()) throw std::runtime_error(svg.status().message());
+  if (!svg.ok()) throw InternalError(svg.status().message());
   const std::pair<std::string, std::string> files[] = {
       {"graph.json", GraphJson(r.graph, style.dashed) + "\n"},
       {"graph.dot", dot},
@@ -184,7 +185,7 @@ void WriteOutputs(const LearnResult& r, const std::string& dir) {
       {"decisions.csv", DecisionsCsv(r)}};
   for (const auto& [name, content] : files) {
     Status written = WriteFileAtomically(dir + "/" + name, content);
-    if (!written.ok()) throw std::runtime_error(written.message());
+    if (!written.ok()) throw FileSystemError(written.message());
   }
 }
 

@@ -5,7 +5,7 @@
 #include <vector>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 namespace {
 

@@ -11,6 +11,8 @@
 #include <set>
 
 #include "app/cli/command.h"
+#include "app/cli/command_guard.h"
+#include "app/io/error.h"
 #include "app/report/report.h"
 #include "app/results/results_merge.h"
 #include "app/results/results_table.h"
@@ -22,30 +24,25 @@ namespace {
 
 namespace po = boost::program_options;
 
-struct MergeError {
-  std::string message;
-  int code;
-};
-
 std::vector<PartFolder> ReadParts(const std::vector<std::string>& dirs) {
   std::vector<PartFolder> parts;
   std::set<int> seen;
   for (const std::string& dir : dirs) {
     Result<PartFolder> p = ReadPartFolder(dir);
-    if (!p.ok()) throw MergeError{p.status().message(), kExitInputError};
+    if (!p.ok()) throw UsageError{p.status().message()};
     if (!parts.empty()) {
       const PartFolder& first = parts.front();
       if (p->study_text != first.study_text || std::filesystem::path(p->study_path).filename() !=
                                                    std::filesystem::path(first.study_path).filename()) {
-        throw MergeError{dir + " holds a different study than " + first.dir, kExitInputError};
+        throw UsageError{dir + " holds a different study than " + first.dir};
       }
       if (p->part.parts != first.part.parts) {
-        throw MergeError{dir + " is a share of " + std::to_string(p->part.parts) + " parts, " + first.dir +
-                             " of " + std::to_string(first.part.parts), kExitInputError};
+        throw UsageError{dir + " is a share of " + std::to_string(p->part.parts) + " parts, " + first.dir +
+                             " of " + std::to_string(first.part.parts)};
       }
     }
     if (!seen.insert(p->part.part).second) {
-      throw MergeError{dir + ": part " + p->part.Text() + " given twice", kExitInputError};
+      throw UsageError{dir + ": part " + p->part.Text() + " given twice"};
     }
     parts.push_back(std::move(p.value()));
   }
@@ -54,8 +51,7 @@ std::vector<PartFolder> ReadParts(const std::vector<std::string>& dirs) {
     for (int k = 1; k <= parts.front().part.parts; ++k) {
       if (!seen.count(k)) missing += (missing.empty() ? "" : ", ") + std::to_string(k);
     }
-    throw MergeError{"missing part(s) " + missing + " of " + std::to_string(parts.front().part.parts),
-                     kExitInputError};
+    throw UsageError{"missing part(s) " + missing + " of " + std::to_string(parts.front().part.parts)};
   }
   return parts;
 }
@@ -67,10 +63,9 @@ void CheckLearners(const StudySpec& study, const PartFolder& p, const UnitResult
   for (const ReplicateRow& row : unit.rows) found += (found.empty() ? "" : ", ") + row.learner;
   for (const LearnerSpec& l : study.learners) expected += (expected.empty() ? "" : ", ") + l.label;
   if (found != expected) {
-    throw MergeError{p.dir + "/replicates.csv: cell " + std::to_string(unit.unit.cell) +
+    throw UsageError{p.dir + "/replicates.csv: cell " + std::to_string(unit.unit.cell) +
                          " replicate " + std::to_string(unit.unit.replicate) + ": learners " +
-                         found + " (expected " + expected + ")",
-                     kExitInputError};
+                         found + " (expected " + expected + ")"};
   }
 }
 
@@ -84,11 +79,11 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   po::variables_map vm;
   po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
   po::notify(vm);
-  if (dirs.empty()) throw MergeError{"usage: locind merge DIR1 DIR2 ... [--out DIR]", kExitInputError};
+  if (dirs.empty()) throw UsageError{"usage: locind merge DIR1 DIR2 ... [--out DIR]"};
   const std::vector<PartFolder> parts = ReadParts(dirs);
   StudyOrErrors read = ParseStudyText(parts.front().study_text, parts.front().study_path);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   const StudySpec& study = std::get<StudySpec>(read);
@@ -97,11 +92,11 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   for (const PartFolder& p : parts) {
     const std::vector<Unit> expected = UnitsOf(cells, study.grid.replicates, p.part);
     if (expected.size() != p.units.size()) {
-      throw MergeError{p.dir + ": holds " + std::to_string(p.units.size()) + " replicates, part " +
-                           p.part.Text() + " has " + std::to_string(expected.size()), kExitInputError};
+      throw UsageError{p.dir + ": holds " + std::to_string(p.units.size()) + " replicates, part " +
+                           p.part.Text() + " has " + std::to_string(expected.size())};
     }
     for (const Unit& u : expected) {
-      if (!p.units.count(u)) throw MergeError{p.dir + ": a replicate of its share is missing", kExitInputError};
+      if (!p.units.count(u)) throw UsageError{p.dir + ": a replicate of its share is missing"};
       CheckLearners(study, p, p.units.at(u));
       units.emplace(u, p.units.at(u));
     }
@@ -109,7 +104,7 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   const StudyTruths truths(study, cells);
   const std::string dir = out_dir.empty() ? "results/" + study.name : out_dir;
   const Status written = WriteResults(dir, study, parts.front().study_text, cells, truths, units, Part{});
-  if (!written.ok()) throw MergeError{written.message(), kExitFailure};
+  if (!written.ok()) throw FileSystemError{written.message()};
   out << "merged " << parts.size() << " parts into " << dir << "/\n";
   const Result<int> report = WriteReportOfResults(dir, study, cells, truths);
   if (report.ok()) out << "report in " << dir << "/report.html\n";
@@ -127,18 +122,7 @@ int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std
            "  --out DIR     result folder (default results/<study name>)\n";
     return kExitOk;
   }
-  try {
-    return Merge(args, out, err);
-  } catch (const MergeError& e) {
-    err << "locind merge: " << e.message << "\n";
-    return e.code;
-  } catch (const po::error& e) {
-    err << "locind merge: " << e.what() << "\n";
-    return kExitInputError;
-  } catch (const std::exception& e) {
-    err << "locind merge: " << e.what() << "\n";
-    return kExitFailure;
-  }
+  return GuardCommand("merge", err, [&] { return Merge(args, out, err); });
 }
 
 }  // namespace locind::app

@@ -43,8 +43,8 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   if (!(targets.false_edges >= 0 && targets.false_edges < 1)) throw UsageError{"--false-edges must lie in [0, 1)"};
   if (threads < 1 || threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
   StudyOrErrors read = ReadStudyFile(path);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   const StudySpec& study = std::get<StudySpec>(read);

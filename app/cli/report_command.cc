@@ -12,7 +12,7 @@
 
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/report/report.h"
 #include "app/results/results_merge.h"
 #include "app/study/study_file.h"
@@ -40,8 +40,8 @@ int Report(const std::vector<std::string>& args, std::ostream& out, std::ostream
     return kExitInputError;
   }
   StudyOrErrors read = ParseStudyText(saved->text, saved->path);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   Result<ReportData> data = ReadReportData(dir);

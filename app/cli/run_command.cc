@@ -85,8 +85,8 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   RankGroup ranks(o.assign);
   if (!ranks.lead()) return ranks.Serve(o.study, o.threads);
   StudyOrErrors read = ReadStudyFile(o.study);
-  if (auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) err << e.ToString() << "\n";
+  if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) err << e.ToString() << "\n";
     return kExitInputError;
   }
   const StudySpec& study = std::get<StudySpec>(read);
@@ -103,7 +103,7 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     return kExitOk;
   }
   if (const std::string memory = MemoryProblem(study, cost); !memory.empty()) {
-    err << InputError{o.study, 0, 0, "memory_mb", memory}.ToString() << "\n";
+    err << Error{o.study, 0, 0, "memory_mb", memory}.ToString() << "\n";
     return kExitInputError;
   }
   const std::string dir = o.out.empty() ? "results/" + study.name : o.out;

@@ -8,6 +8,7 @@
 #include <cmath>
 
 #include "app/io/atomic_file.h"
+#include "app/io/error.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
 #include "app/io/event_csv.h"
@@ -55,7 +56,7 @@ std::string Simulate(const ModelSpec& spec, const Options& o, std::string& summa
     sim::HawkesRunOptions run = events->run;
     run.horizon = o.horizon;
     Result<sim::EventData> data = sim::SimulateHawkes(events->model, run, random);
-    if (!data.ok()) throw std::runtime_error(data.status().message());
+    if (!data.ok()) throw InternalError(data.status().message());
     summary = std::to_string(data->total_events()) + " events";
     return FormatEventCsv(*data);
   }
@@ -63,7 +64,7 @@ std::string Simulate(const ModelSpec& spec, const Options& o, std::string& summa
   sim::PathRunOptions run = paths.run;
   run.horizon = o.horizon;
   Result<sim::PathData> data = sim::SimulateDiffusion(paths.model, run, random);
-  if (!data.ok()) throw std::runtime_error(data.status().message());
+  if (!data.ok()) throw InternalError(data.status().message());
   summary = std::to_string(data->samples()) + " samples of " + std::to_string(data->processes()) +
             " processes";
   return FormatPathCsv(*data);
@@ -81,11 +82,11 @@ int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, 
   return GuardCommand("simulate", err, [&] {
     const Options o = ParseOptions(args);
     ModelOrError model = ReadModelFile(o.model);
-    if (auto* e = std::get_if<InputError>(&model)) throw *e;
+    if (auto* e = std::get_if<Error>(&model)) throw *e;
     std::string summary;
     const std::string content = Simulate(std::get<ModelSpec>(model), o, summary);
     Status written = WriteFileAtomically(o.out, content);
-    if (!written.ok()) throw std::runtime_error(written.message());
+    if (!written.ok()) throw FileSystemError(written.message());
     out << "wrote " << o.out << " (" << summary << ")\n";
     return kExitOk;
   }, kUsage);

@@ -71,7 +71,7 @@ std::vector<double> ParseRates(const TestOptions& o) {
   for (const std::string& item : SplitList(o.rates)) {
     double r = 0;
     if (!csv::ParseNumber(item, r) || !(r > 0)) {
-      throw InputError{o.data, 0, 0, "--rates", "'" + item + "' is not a positive number"};
+      throw Error{o.data, 0, 0, "--rates", "'" + item + "' is not a positive number"};
     }
     rates.push_back(r);
   }
@@ -80,7 +80,7 @@ std::vector<double> ParseRates(const TestOptions& o) {
 
 std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  if (auto* e = std::get_if<Errors>(&read)) throw *e;
   sim::EventData data = std::get<sim::EventData>(std::move(read));
   const std::optional<learners::HawkesTestOptions> options = HawkesTestChoice(o.test);
   if (!options) {
@@ -90,21 +90,21 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
   std::vector<double> rates = ParseRates(o);
   if (rates.empty()) rates = learners::DefaultHawkesRates(data);
   auto features = learners::HawkesFeatures::Create(std::move(data), rates);
-  if (!features.ok()) throw InputError{o.data, 0, 0, "", features.status().message()};
+  if (!features.ok()) throw Error{o.data, 0, 0, "", features.status().message()};
   return std::make_unique<learners::HawkesLrTest>(
       std::make_shared<learners::HawkesFeatures>(std::move(features.value())), *options);
 }
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathCsvFile(o.data);
-  if (auto* e = std::get_if<InputErrors>(&read)) throw *e;
+  if (auto* e = std::get_if<Errors>(&read)) throw *e;
   std::optional<learners::DriftTestOptions> options = DriftTestChoice(o.test);
   if (!options) {
     throw UsageError{"unknown test '" + o.test + "' for paths (drift-f, drift-robust-wald)"};
   }
   options->rates = ParseRates(o);
   auto made = learners::DriftTest::Create(std::get<sim::PathData>(std::move(read)), *options);
-  if (!made.ok()) throw InputError{o.data, 0, 0, "", made.status().message()};
+  if (!made.ok()) throw Error{o.data, 0, 0, "", made.status().message()};
   return std::make_unique<learners::DriftTest>(std::move(made.value()));
 }
 
@@ -115,7 +115,7 @@ std::vector<int> Indices(const learners::IndependenceTest& test, const std::stri
   const std::vector<std::string>& names = test.names();
   for (const std::string& name : SplitList(list)) {
     const auto it = std::find(names.begin(), names.end(), name);
-    if (it == names.end()) throw InputError{path, 0, 0, option, "unknown process '" + name + "'"};
+    if (it == names.end()) throw Error{path, 0, 0, option, "unknown process '" + name + "'"};
     out.push_back(int(it - names.begin()));
   }
   std::sort(out.begin(), out.end());

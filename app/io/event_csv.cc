@@ -44,8 +44,8 @@ constexpr char kWindowKey[] = "# window:";
 struct Reader {
   const std::string& file;
   int line = 0;
-  InputError Error(int column, const std::string& field, const std::string& message) const {
-    return InputError{file, line, column, field, message};
+  Error Fail(int column, const std::string& field, const std::string& message) const {
+    return Error{file, line, column, field, message};
   }
 };
 
@@ -68,14 +68,14 @@ struct Parsed {
   bool window = false;    // window line seen
 };
 
-std::optional<InputError> ReadProcesses(const Reader& r, std::string_view rest, int column,
+std::optional<Error> ReadProcesses(const Reader& r, std::string_view rest, int column,
                                         Parsed& p) {
   for (const csv::Field& f : csv::Split(rest)) {
     int col = column + f.column - 1;
     const std::string name(TrimLeft(f.text, col));
-    if (!IsValidNodeName(name)) return r.Error(col, "processes", "expected a process name");
+    if (!IsValidNodeName(name)) return r.Fail(col, "processes", "expected a process name");
     if (!p.index.emplace(name, p.data.processes()).second) {
-      return r.Error(col, "processes", "duplicate process '" + name + "'");
+      return r.Fail(col, "processes", "duplicate process '" + name + "'");
     }
     p.data.names.push_back(name);
   }
@@ -84,44 +84,44 @@ std::optional<InputError> ReadProcesses(const Reader& r, std::string_view rest, 
   return std::nullopt;
 }
 
-std::optional<InputError> ReadWindow(const Reader& r, std::string_view rest, int column, Parsed& p) {
+std::optional<Error> ReadWindow(const Reader& r, std::string_view rest, int column, Parsed& p) {
   const std::vector<csv::Field> f = csv::Split(rest);
-  if (f.size() != 2) return r.Error(column, "window", "expected 'start,end'");
+  if (f.size() != 2) return r.Fail(column, "window", "expected 'start,end'");
   double v[2];
   for (int i = 0; i < 2; ++i) {
     int col = column + f[i].column - 1;
     if (!csv::ParseNumber(TrimLeft(f[i].text, col), v[i])) {
-      return r.Error(col, "window", "expected a finite number");
+      return r.Fail(col, "window", "expected a finite number");
     }
   }
-  if (!(v[0] < v[1])) return r.Error(column, "window", "start must be before end");
+  if (!(v[0] < v[1])) return r.Fail(column, "window", "start must be before end");
   p.data.start = v[0];
   p.data.end = v[1];
   p.window = true;
   return std::nullopt;
 }
 
-std::optional<InputError> ReadEvent(const Reader& r, std::string_view text, double& last, Parsed& p) {
+std::optional<Error> ReadEvent(const Reader& r, std::string_view text, double& last, Parsed& p) {
   const std::vector<csv::Field> f = csv::Split(text);
   if (f.size() != 2) {
-    return r.Error(f.size() > 2 ? f[2].column : static_cast<int>(text.size()) + 1, "row",
+    return r.Fail(f.size() > 2 ? f[2].column : static_cast<int>(text.size()) + 1, "row",
                    "expected 2 fields 'time,process', found " + std::to_string(f.size()));
   }
   double t = 0;
-  if (!csv::ParseNumber(f[0].text, t)) return r.Error(1, "time", "expected a finite number");
+  if (!csv::ParseNumber(f[0].text, t)) return r.Fail(1, "time", "expected a finite number");
   if (t < last) {
-    return r.Error(1, "time", "events must be sorted by time (" + std::string(f[0].text) +
+    return r.Fail(1, "time", "events must be sorted by time (" + std::string(f[0].text) +
                                   " comes after " + base::FormatNumber(last) + ")");
   }
   if (p.window && (t < p.data.start || t > p.data.end)) {
-    return r.Error(1, "time", "outside the window");
+    return r.Fail(1, "time", "outside the window");
   }
   last = t;
   const std::string name(f[1].text);
   auto it = p.index.find(name);
   if (it == p.index.end()) {
-    if (p.declared) return r.Error(f[1].column, "process", "unknown process '" + name + "'");
-    if (!IsValidNodeName(name)) return r.Error(f[1].column, "process", "expected a process name");
+    if (p.declared) return r.Fail(f[1].column, "process", "unknown process '" + name + "'");
+    if (!IsValidNodeName(name)) return r.Fail(f[1].column, "process", "expected a process name");
     it = p.index.emplace(name, p.data.processes()).first;
     p.data.names.push_back(name);
     p.data.times.emplace_back();
@@ -157,36 +157,36 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
   Parsed p;
   bool header = false;
   double last = -INFINITY;
-  InputErrors rows;  // problems in event lines: reading goes on after them
+  Errors rows;  // problems in event lines: reading goes on after them
   for (std::string text; std::getline(in, text);) {
     ++r.line;
     if (!text.empty() && text.back() == '\r') text.pop_back();
-    std::optional<InputError> error;
+    std::optional<Error> error;
     if (!header && StartsWith(text, kProcessesKey)) {
-      if (p.declared) return InputErrors{r.Error(1, "processes", "given twice")};
+      if (p.declared) return Errors{r.Fail(1, "processes", "given twice")};
       error = ReadProcesses(r, std::string_view(text).substr(sizeof kProcessesKey - 1),
                             sizeof kProcessesKey, p);
     } else if (!header && StartsWith(text, kWindowKey)) {
-      if (p.window) return InputErrors{r.Error(1, "window", "given twice")};
+      if (p.window) return Errors{r.Fail(1, "window", "given twice")};
       error = ReadWindow(r, std::string_view(text).substr(sizeof kWindowKey - 1), sizeof kWindowKey, p);
     } else if (!header && StartsWith(text, "#")) {
       continue;  // a comment before the header
     } else if (!header) {
-      if (text != kHeader) return InputErrors{r.Error(1, "header", "expected 'time,process'")};
+      if (text != kHeader) return Errors{r.Fail(1, "header", "expected 'time,process'")};
       header = true;
-    } else if (std::optional<InputError> bad = ReadEvent(r, text, last, p)) {
-      if (AddInputError(rows, *bad)) return rows;
+    } else if (std::optional<Error> bad = ReadEvent(r, text, last, p)) {
+      if (AddError(rows, *bad)) return rows;
     }
-    if (error) return InputErrors{*error};
+    if (error) return Errors{*error};
   }
   if (!header) {
-    return InputErrors{InputError{file, r.line + 1, 1, "header",
+    return Errors{Error{file, r.line + 1, 1, "header",
                                   r.line ? "missing 'time,process'" : "empty file"}};
   }
   if (!rows.empty()) return rows;
   if (p.data.names.empty()) {
-    return InputErrors{
-        InputError{file, 0, 0, "processes", "no process: no events and no '# processes:' line"}};
+    return Errors{
+        Error{file, 0, 0, "processes", "no process: no events and no '# processes:' line"}};
   }
   if (!p.window) {
     p.data.start = 0;
@@ -195,12 +195,12 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
         std::any_of(p.data.times.begin(), p.data.times.end(),
                     [](const std::vector<double>& t) { return !t.empty() && t.front() < 0; });
     if (negative) {
-      return InputErrors{
-          InputError{file, 0, 0, "window", "negative times need a '# window:' line"}};
+      return Errors{
+          Error{file, 0, 0, "window", "negative times need a '# window:' line"}};
     }
     if (!(p.data.end > p.data.start)) {
-      return InputErrors{
-          InputError{file, 0, 0, "window",
+      return Errors{
+          Error{file, 0, 0, "window",
                      "the window [0, last event time] is empty; give a '# window:' line"}};
     }
   }
@@ -209,7 +209,7 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
 
 EventsOrError ReadEventCsvFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
+  if (!in) return Errors{Error{path, 0, 0, "", "cannot open the file"}};
   return ReadEventCsv(in, path);
 }
 

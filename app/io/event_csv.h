@@ -17,12 +17,12 @@
 #include <variant>
 #include <vector>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "sim/event_data.h"
 
 namespace locind::app {
 
-using EventsOrError = std::variant<sim::EventData, InputErrors>;
+using EventsOrError = std::variant<sim::EventData, Errors>;
 
 // Streams `data` in the event file format, events merged across processes in
 // time order (ties broken by process order).
@@ -31,7 +31,7 @@ std::string FormatEventCsv(const sim::EventData& data);
 
 // Reads an event file; `file` names the source in errors. A problem in the
 // lines before the header stops reading; problems in event lines are all
-// reported (up to kMaxInputErrors), in file order. Without the
+// reported (up to kMaxErrors), in file order. Without the
 // processes line, processes are named in order of first appearance; without
 // the window line, the window is [0, last event time], which must not be empty.
 EventsOrError ReadEventCsv(std::istream& in, const std::string& file);

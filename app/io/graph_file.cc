@@ -41,7 +41,7 @@ bool SplitEdge(const std::string& text, ParsedEdge& out) {
   return IsValidNodeName(out.from) && IsValidNodeName(out.to);
 }
 
-std::variant<std::vector<std::string>, InputError> ReadNameList(const YAML::Node& list,
+std::variant<std::vector<std::string>, Error> ReadNameList(const YAML::Node& list,
                                                                 const std::string& file,
                                                                 const std::string& field) {
   if (!list.IsSequence()) return ErrorAt(file, list, field, "expected a list of node names");
@@ -56,10 +56,10 @@ std::variant<std::vector<std::string>, InputError> ReadNameList(const YAML::Node
   return names;
 }
 
-std::variant<Dmg, InputError> ReadNodesAndEdges(const YAML::Node& map, const std::string& file) {
+std::variant<Dmg, Error> ReadNodesAndEdges(const YAML::Node& map, const std::string& file) {
   if (!map["nodes"]) return ErrorAt(file, map, "nodes", "missing the list of nodes");
   auto names = ReadNameList(map["nodes"], file, "nodes");
-  if (auto* e = std::get_if<InputError>(&names)) return *e;
+  if (auto* e = std::get_if<Error>(&names)) return *e;
   std::set<std::string> seen;
   const auto& list = std::get<std::vector<std::string>>(names);
   for (size_t i = 0; i < list.size(); ++i) {
@@ -105,20 +105,20 @@ bool IsValidNodeName(const std::string& name) {
   return true;
 }
 
-InputError ErrorAt(const std::string& file, const YAML::Node& node, const std::string& field,
+Error ErrorAt(const std::string& file, const YAML::Node& node, const std::string& field,
                    const std::string& message) {
   const YAML::Mark mark = node.Mark();
   const bool known = mark.line >= 0 && !mark.is_null();
-  return InputError{file, known ? mark.line + 1 : 0, known ? mark.column + 1 : 0, field, message};
+  return Error{file, known ? mark.line + 1 : 0, known ? mark.column + 1 : 0, field, message};
 }
 
 GraphOrError ParseGraphKeys(const YAML::Node& map, const std::string& file) {
   auto parsed = ReadNodesAndEdges(map, file);
-  if (auto* e = std::get_if<InputError>(&parsed)) return *e;
+  if (auto* e = std::get_if<Error>(&parsed)) return *e;
   TruthGraph truth{std::get<Dmg>(std::move(parsed)), {}};
   if (const YAML::Node hidden = map["hidden"]) {
     auto names = ReadNameList(hidden, file, "hidden");
-    if (auto* e = std::get_if<InputError>(&names)) return *e;
+    if (auto* e = std::get_if<Error>(&names)) return *e;
     const auto& list = std::get<std::vector<std::string>>(names);
     for (size_t i = 0; i < list.size(); ++i) {
       const auto v = truth.graph.index(list[i]);
@@ -140,9 +140,9 @@ GraphOrError ParseGraphText(const std::string& text, const std::string& file) {
   try {
     root = YAML::Load(text);
   } catch (const YAML::ParserException& e) {
-    return InputError{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg};
+    return Error{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg};
   }
-  if (!root.IsMap()) return InputError{file, 1, 1, "", "expected a mapping with nodes and edges"};
+  if (!root.IsMap()) return Error{file, 1, 1, "", "expected a mapping with nodes and edges"};
   std::set<std::string> seen;
   for (const auto& kv : root) {
     const std::string key = kv.first.Scalar();
@@ -156,11 +156,11 @@ GraphOrError ParseGraphText(const std::string& text, const std::string& file) {
 
 GraphOrError ReadGraphFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputError{path, 0, 0, "", "cannot open the file"};
+  if (!in) return Error{path, 0, 0, "", "cannot open the file"};
   std::ostringstream text;
   text << in.rdbuf();
   if (text.str().find_first_not_of(" \t\r\n") == std::string::npos) {
-    return InputError{path, 1, 1, "", "the file is empty"};
+    return Error{path, 1, 1, "", "the file is empty"};
   }
   return ParseGraphText(text.str(), path);
 }

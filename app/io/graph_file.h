@@ -13,12 +13,12 @@
 
 #include <yaml-cpp/yaml.h>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "graph/truth_graph.h"
 
 namespace locind::app {
 
-using GraphOrError = std::variant<graph::TruthGraph, InputError>;
+using GraphOrError = std::variant<graph::TruthGraph, Error>;
 
 // Reads and validates a graph file.
 GraphOrError ReadGraphFile(const std::string& path);
@@ -36,8 +36,8 @@ std::string FormatGraph(const graph::TruthGraph& truth);
 // True for names the file format accepts.
 bool IsValidNodeName(const std::string& name);
 
-// The location of a YAML node as an InputError (line and column 1-based).
-InputError ErrorAt(const std::string& file, const YAML::Node& node, const std::string& field,
+// The location of a YAML node as an Error (line and column 1-based).
+Error ErrorAt(const std::string& file, const YAML::Node& node, const std::string& field,
                    const std::string& message);
 
 }  // namespace locind::app

@@ -11,16 +11,16 @@
 namespace locind::app {
 namespace {
 
-// The parser throws InputError internally; the public functions return it.
+// The parser throws Error internally; the public functions return it.
 class Parser {
  public:
   explicit Parser(const std::string& file) : file_(file) {}
 
   ModelSpec Parse(const YAML::Node& root) {
-    if (!root.IsMap()) throw InputError{file_, 1, 1, "", "expected a mapping with nodes and edges"};
+    if (!root.IsMap()) throw Error{file_, 1, 1, "", "expected a mapping with nodes and edges"};
     CheckKeys(root, "", {"nodes", "edges", "hidden", "events", "paths"});
     GraphOrError graph = ParseGraphKeys(root, file_);
-    if (auto* e = std::get_if<InputError>(&graph)) throw *e;
+    if (auto* e = std::get_if<Error>(&graph)) throw *e;
     truth_ = std::get<graph::TruthGraph>(std::move(graph));
     if (root["events"] && root["paths"]) {
       throw ErrorAt(file_, root["paths"], "paths", "a model has either events or paths, not both");
@@ -267,20 +267,20 @@ ModelOrError ParseModelText(const std::string& text, const std::string& file) {
   try {
     root = YAML::Load(text);
   } catch (const YAML::ParserException& e) {
-    return InputError{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg};
+    return Error{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg};
   }
   try {
     return Parser(file).Parse(root);
-  } catch (const InputError& e) {
+  } catch (const Error& e) {
     return e;
   } catch (const YAML::Exception& e) {
-    return InputError{file, e.mark.line + 1, e.mark.column + 1, "", e.msg};
+    return Error{file, e.mark.line + 1, e.mark.column + 1, "", e.msg};
   }
 }
 
 ModelOrError ReadModelFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputError{path, 0, 0, "", "cannot open the file"};
+  if (!in) return Error{path, 0, 0, "", "cannot open the file"};
   std::stringstream text;
   text << in.rdbuf();
   return ParseModelText(text.str(), path);

@@ -20,7 +20,7 @@
 #include <string>
 #include <variant>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
 
@@ -37,7 +37,7 @@ struct PathModelSpec {
 };
 
 using ModelSpec = std::variant<EventModelSpec, PathModelSpec>;
-using ModelOrError = std::variant<ModelSpec, InputError>;
+using ModelOrError = std::variant<ModelSpec, Error>;
 
 // Reads and validates a model file (graph, parameters, sim::Validate).
 ModelOrError ReadModelFile(const std::string& path);

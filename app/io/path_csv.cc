@@ -13,12 +13,12 @@
 namespace locind::app {
 namespace {
 
-InputError At(const std::string& file, int line, int column, const std::string& field,
+Error At(const std::string& file, int line, int column, const std::string& field,
               const std::string& message) {
-  return InputError{file, line, column, field, message};
+  return Error{file, line, column, field, message};
 }
 
-std::variant<std::vector<std::string>, InputError> ReadHeader(const std::string& text,
+std::variant<std::vector<std::string>, Error> ReadHeader(const std::string& text,
                                                               const std::string& file) {
   const std::vector<csv::Field> f = csv::Split(text);
   if (f[0].text != "time") return At(file, 1, 1, "header", "expected 'time' as the first column");
@@ -38,7 +38,7 @@ std::variant<std::vector<std::string>, InputError> ReadHeader(const std::string&
 
 // The problem of one data row, if any; a good row is appended to `data`
 // (its time) and `values`.
-std::optional<InputError> ReadRow(const std::string& text, int line, const std::string& file,
+std::optional<Error> ReadRow(const std::string& text, int line, const std::string& file,
                                   sim::PathData& data, std::vector<double>& values) {
   const size_t width = data.names.size() + 1;
   const std::vector<csv::Field> f = csv::Split(text);
@@ -83,25 +83,25 @@ std::string FormatPathCsv(const sim::PathData& data) {
 
 PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {
   std::string text;
-  if (!std::getline(in, text)) return InputErrors{At(file, 1, 1, "header", "empty file")};
+  if (!std::getline(in, text)) return Errors{At(file, 1, 1, "header", "empty file")};
   if (!text.empty() && text.back() == '\r') text.pop_back();
   auto header = ReadHeader(text, file);
-  if (auto* e = std::get_if<InputError>(&header)) return InputErrors{*e};
+  if (auto* e = std::get_if<Error>(&header)) return Errors{*e};
   sim::PathData data;
   data.names = std::get<std::vector<std::string>>(std::move(header));
   std::vector<double> values;
-  InputErrors errors;  // problems in data rows: reading goes on after them
+  Errors errors;  // problems in data rows: reading goes on after them
   int line = 1;
   while (std::getline(in, text)) {
     ++line;
     if (!text.empty() && text.back() == '\r') text.pop_back();
-    if (std::optional<InputError> bad = ReadRow(text, line, file, data, values)) {
-      if (AddInputError(errors, *bad)) return errors;
+    if (std::optional<Error> bad = ReadRow(text, line, file, data, values)) {
+      if (AddError(errors, *bad)) return errors;
     }
   }
   if (!errors.empty()) return errors;
   if (data.time.empty())
-    return InputErrors{At(file, line + 1, 1, "", "no samples after the header")};
+    return Errors{At(file, line + 1, 1, "", "no samples after the header")};
   const Eigen::Index n = static_cast<Eigen::Index>(data.names.size());
   data.values = Eigen::Map<Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
       values.data(), data.samples(), n);
@@ -110,7 +110,7 @@ PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {
 
 PathsOrError ReadPathCsvFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return InputErrors{InputError{path, 0, 0, "", "cannot open the file"}};
+  if (!in) return Errors{Error{path, 0, 0, "", "cannot open the file"}};
   return ReadPathCsv(in, path);
 }
 

@@ -14,19 +14,19 @@
 #include <string>
 #include <variant>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "sim/path_data.h"
 
 namespace locind::app {
 
-using PathsOrError = std::variant<sim::PathData, InputErrors>;
+using PathsOrError = std::variant<sim::PathData, Errors>;
 
 // Streams `data` in the path file format.
 void WritePathCsv(const sim::PathData& data, std::ostream& out);
 std::string FormatPathCsv(const sim::PathData& data);
 
 // Reads a path file; `file` names the source in errors. A bad header stops
-// reading; problems in data rows are all reported (up to kMaxInputErrors),
+// reading; problems in data rows are all reported (up to kMaxErrors),
 // in file order.
 PathsOrError ReadPathCsv(std::istream& in, const std::string& file);
 PathsOrError ReadPathCsvFile(const std::string& path);

@@ -7,7 +7,7 @@ locind_layer(locind_io
     app/io/external_program.cc
     app/io/graph_file.cc
     app/io/graph_json.cc
-    app/io/input_error.cc
+    app/io/error.cc
     app/io/model_file.cc
     app/io/path_csv.cc
     app/io/svg_render.cc

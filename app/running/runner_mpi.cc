@@ -31,7 +31,7 @@
 #include <thread>
 
 #include "base/hashing.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/results/results_writer.h"
 #include "app/running/runner_journal.h"
 #include "app/running/runner_mpi.h"
@@ -201,7 +201,7 @@ std::vector<Unit> TakeFront(std::deque<Unit>& queue, int count) {
 
 UnitResult DecodeResult(const std::string& text, int from) {
   std::optional<UnitResult> unit = DecodeUnit(text);
-  if (!unit) throw std::runtime_error("rank " + std::to_string(from) + " sent a malformed result");
+  if (!unit) throw InternalError("rank " + std::to_string(from) + " sent a malformed result");
   return std::move(*unit);
 }
 
@@ -257,7 +257,7 @@ RankGroup::RankGroup(const std::string& assign) {
   MPI_Comm_size(MPI_COMM_WORLD, &size_);
   if (provided < MPI_THREAD_FUNNELED) {
     MPI_Finalize();
-    throw std::runtime_error("the MPI library offers no thread support (MPI_THREAD_FUNNELED)");
+    throw InternalError("the MPI library offers no thread support (MPI_THREAD_FUNNELED)");
   }
   joined_ = true;
 }
@@ -326,7 +326,7 @@ void RankGroup::RunUnits(const StudySpec& study, const std::vector<Cell>& cells,
       const int from = status->MPI_SOURCE;
       if (status->MPI_TAG == kTagReady) {
         if (text != hash) {
-          throw std::runtime_error("rank " + std::to_string(from) + " read another study from its "
+          throw InternalError("rank " + std::to_string(from) + " read another study from its "
                                    "copy of the study file, or could not read it");
         }
         Send((dispatch_ ? "dispatch" : "static ") + EncodeUnits(shares[from]), from, kTagStart);

@@ -1,7 +1,7 @@
 // RankGroup in a build without the LOCIND_MPI option: always one process.
 #include "app/running/runner_mpi.h"
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 namespace locind::app {
 

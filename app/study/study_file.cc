@@ -43,7 +43,7 @@ class StudyParser {
     s.file = file_;
     s.name = std::filesystem::path(file_).stem().string();
     if (!root.IsMap()) {
-      Error(root, "study", "expected a mapping with truth, process, grid and learners");
+      Fail(root, "study", "expected a mapping with truth, process, grid and learners");
       return s;
     }
     CheckKeys(root, "",
@@ -51,7 +51,7 @@ class StudyParser {
                "memory_mb"});
     if (root["name"]) s.name = Name(root["name"], "name");
     if (root["description"] && !root["description"].IsScalar()) {
-      Error(root["description"], "description", "expected text");
+      Fail(root["description"], "description", "expected text");
     }
     if (root["seed"]) s.seed = Seed(root["seed"]);
     if (Require(root, "truth", "")) s.truth = ParseTruth(root["truth"]);
@@ -64,31 +64,31 @@ class StudyParser {
     return s;
   }
 
-  std::vector<InputError> errors() const { return errors_; }
+  std::vector<Error> errors() const { return errors_; }
 
  private:
-  void Error(const YAML::Node& node, const std::string& field, const std::string& message) {
+  void Fail(const YAML::Node& node, const std::string& field, const std::string& message) {
     errors_.push_back(ErrorAt(file_, node, field, message));
   }
 
   bool Require(const YAML::Node& map, const char* key, const std::string& section) {
     if (map[key]) return true;
-    Error(map, Join(section, key), "missing");
+    Fail(map, Join(section, key), "missing");
     return false;
   }
 
   bool CheckKeys(const YAML::Node& map, const std::string& section, const Keys& allowed) {
     if (!map.IsMap()) {
-      Error(map, section, "expected a mapping");
+      Fail(map, section, "expected a mapping");
       return false;
     }
     Keys seen;
     for (const auto& kv : map) {
       const std::string key = kv.first.Scalar();
       if (!allowed.count(key)) {
-        Error(kv.first, Join(section, key), "unknown key (expected one of: " + List(allowed) + ")");
+        Fail(kv.first, Join(section, key), "unknown key (expected one of: " + List(allowed) + ")");
       } else if (!seen.insert(key).second) {
-        Error(kv.first, Join(section, key), "given twice");
+        Fail(kv.first, Join(section, key), "given twice");
       }
     }
     return true;
@@ -96,7 +96,7 @@ class StudyParser {
 
   std::string Name(const YAML::Node& node, const std::string& field) {
     if (!node.IsScalar() || !IsValidNodeName(node.Scalar())) {
-      Error(node, field, "expected a name (a letter or '_', then letters, digits, '_' or '.')");
+      Fail(node, field, "expected a name (a letter or '_', then letters, digits, '_' or '.')");
       return "study";
     }
     return node.Scalar();
@@ -105,7 +105,7 @@ class StudyParser {
   uint64_t Seed(const YAML::Node& node) {
     uint64_t v = 0;
     if (!node.IsScalar() || !YAML::convert<uint64_t>::decode(node, v)) {
-      Error(node, "seed", "expected a whole number >= 0");
+      Fail(node, "seed", "expected a whole number >= 0");
       return 1;
     }
     return v;
@@ -114,7 +114,7 @@ class StudyParser {
   std::optional<double> Number(const YAML::Node& node, const std::string& field) {
     double v = 0;
     if (!node.IsScalar() || !YAML::convert<double>::decode(node, v) || !std::isfinite(v)) {
-      Error(node, field, "expected a finite number");
+      Fail(node, field, "expected a finite number");
       return std::nullopt;
     }
     return v;
@@ -130,7 +130,7 @@ class StudyParser {
     const bool below = open_low ? *v <= low : *v < low;
     const bool above = open_high ? *v >= high : *v > high;
     if (below || above) {
-      Error(map[key], field, "must lie in " + std::string(open_low ? "(" : "[") + Text(low) + ", " +
+      Fail(map[key], field, "must lie in " + std::string(open_low ? "(" : "[") + Text(low) + ", " +
                                  Text(high) + (open_high ? ")" : "]"));
       return fallback;
     }
@@ -150,7 +150,7 @@ class StudyParser {
     const std::string field = Join(section, key);
     int v = 0;
     if (!map[key].IsScalar() || !YAML::convert<int>::decode(map[key], v) || v < low || v > high) {
-      Error(map[key], field,
+      Fail(map[key], field,
             "expected a whole number from " + std::to_string(low) + " to " + std::to_string(high));
       return fallback;
     }
@@ -165,7 +165,7 @@ class StudyParser {
       return node.Scalar();
     }
     Keys set(choices.begin(), choices.end());
-    Error(node, Join(section, key), "expected one of: " + List(set));
+    Fail(node, Join(section, key), "expected one of: " + List(set));
     return choices.front();
   }
 
@@ -185,16 +185,16 @@ class StudyParser {
       const auto hi = Number(node[1], field);
       if (!lo || !hi) return fallback;
       if (*lo > *hi) {
-        Error(node, field, "a range [low, high] needs low <= high");
+        Fail(node, field, "a range [low, high] needs low <= high");
         return fallback;
       }
       r = {*lo, *hi};
     } else {
-      Error(node, field, "expected a number or a range [low, high]");
+      Fail(node, field, "expected a number or a range [low, high]");
       return fallback;
     }
     if (r.low < min || r.high > max || (positive && r.low <= 0)) {
-      Error(node, field, positive ? "must be > 0" : "must lie in [" + Text(min) + ", " + Text(max) + "]");
+      Fail(node, field, positive ? "must be > 0" : "must lie in [" + Text(min) + ", " + Text(max) + "]");
       return fallback;
     }
     return r;
@@ -208,7 +208,7 @@ class StudyParser {
     spec.truths = Whole(t, "truths", "truth", 1, 1, 100000);
     const bool has_graph = t["nodes"] || t["edges"] || t["hidden"];
     if (has_graph && t["random"]) {
-      Error(t["random"], "truth.random", "give either an explicit graph (nodes, edges, hidden) or random, not both");
+      Fail(t["random"], "truth.random", "give either an explicit graph (nodes, edges, hidden) or random, not both");
       return spec;
     }
     if (t["random"]) {
@@ -217,13 +217,13 @@ class StudyParser {
       return spec;
     }
     GraphOrError g = ParseGraphKeys(t, file_);
-    if (auto* e = std::get_if<InputError>(&g)) {
+    if (auto* e = std::get_if<Error>(&g)) {
       e->field = Join("truth", e->field);
       errors_.push_back(*e);
     } else {
       spec.explicit_graph = std::get<graph::TruthGraph>(std::move(g));
       if (spec.explicit_graph.graph.BidirectedEdgeCount() > 0) {
-        Error(t["edges"], "truth.edges", "a process truth has directed edges only (hidden nodes make the bidirected ones)");
+        Fail(t["edges"], "truth.edges", "a process truth has directed edges only (hidden nodes make the bidirected ones)");
       }
     }
     return spec;
@@ -237,7 +237,7 @@ class StudyParser {
     }
     if (Require(r, "nodes", s)) o.nodes = Whole(r, "nodes", s, 5, 1, 64);
     if (r["edge_probability"] && r["in_degree"]) {
-      Error(r["in_degree"], Join(s, "in_degree"), "give edge_probability or in_degree, not both");
+      Fail(r["in_degree"], Join(s, "in_degree"), "give edge_probability or in_degree, not both");
     }
     o.edge_probability = Bounded(r, "edge_probability", s, 0.3, 0, 1, false, false);
     if (r["in_degree"]) {
@@ -253,9 +253,9 @@ class StudyParser {
         for (const YAML::Node& item : h) {
           int v = 0;
           if (!item.IsScalar() || !YAML::convert<int>::decode(item, v) || v < 1 || v > o.nodes) {
-            Error(item, Join(s, "hidden"), "expected node positions from 1 to " + std::to_string(o.nodes));
+            Fail(item, Join(s, "hidden"), "expected node positions from 1 to " + std::to_string(o.nodes));
           } else if (!seen.insert(v - 1).second) {
-            Error(item, Join(s, "hidden"), "position listed twice");
+            Fail(item, Join(s, "hidden"), "position listed twice");
           }
         }
         o.hidden_list.assign(seen.begin(), seen.end());
@@ -264,7 +264,7 @@ class StudyParser {
       }
     }
     if (static_cast<int>(o.hidden_list.size()) >= o.nodes && o.nodes > 0) {
-      Error(NodeOr(r, "hidden"), Join(s, "hidden"), "at least one node must be observed");
+      Fail(NodeOr(r, "hidden"), Join(s, "hidden"), "at least one node must be observed");
     }
     return o;
   }
@@ -276,7 +276,7 @@ class StudyParser {
   void ParseProcess(const YAML::Node& p, StudySpec& s) {
     if (!CheckKeys(p, "process", {"events", "paths"})) return;
     if (p["events"] && p["paths"]) {
-      Error(p["paths"], "process.paths", "a study simulates either events or paths, not both");
+      Fail(p["paths"], "process.paths", "a study simulates either events or paths, not both");
       return;
     }
     if (p["paths"]) {
@@ -285,7 +285,7 @@ class StudyParser {
     } else if (p["events"]) {
       s.event_process = ParseEvents(p["events"]);
     } else {
-      Error(p, "process", "expected an 'events' or a 'paths' section");
+      Fail(p, "process", "expected an 'events' or a 'paths' section");
     }
   }
 
@@ -325,11 +325,11 @@ class StudyParser {
     if (p["drift_bound"]) o.drift_bound = Bounded(p, "drift_bound", s, -0.5, -kInf, 0, true, true);
     const double ratio = o.interval / o.step;
     if (std::abs(ratio - std::round(ratio)) > 1e-9 * ratio || std::round(ratio) < 1) {
-      Error(NodeOr(p, "interval"), Join(s, "interval"), "must be a multiple of the step");
+      Fail(NodeOr(p, "interval"), Join(s, "interval"), "must be a multiple of the step");
     }
-    if (o.tanh && o.exact) Error(p["method"], Join(s, "method"), "the exact transition needs the linear drift");
+    if (o.tanh && o.exact) Fail(p["method"], Join(s, "method"), "the exact transition needs the linear drift");
     if (o.tanh && o.drift_bound) {
-      Error(p["drift_bound"], Join(s, "drift_bound"), "drift_bound rescales a linear drift only");
+      Fail(p["drift_bound"], Join(s, "drift_bound"), "drift_bound rescales a linear drift only");
     }
     return o;
   }
@@ -343,7 +343,7 @@ class StudyParser {
     const YAML::Node node = map[key];
     const std::string field = Join(section, key);
     if (!node.IsSequence() && !node.IsScalar()) {
-      Error(node, field, "expected a number or a list of numbers");
+      Fail(node, field, "expected a number or a list of numbers");
       return out;
     }
     std::vector<YAML::Node> items;
@@ -352,19 +352,19 @@ class StudyParser {
     } else {
       for (const YAML::Node& item : node) items.push_back(item);
     }
-    if (items.empty()) Error(node, field, "expected at least one value");
+    if (items.empty()) Fail(node, field, "expected at least one value");
     for (const YAML::Node& item : items) {
       const auto v = Number(item, field);
       if (!v) continue;
       const bool bad = (open_low ? *v <= low : *v < low) || (open_high ? *v >= high : *v > high) ||
                        (whole && *v != std::floor(*v));
       if (bad) {
-        Error(item, field, std::string(whole ? "expected whole numbers" : "expected numbers") + " in " +
+        Fail(item, field, std::string(whole ? "expected whole numbers" : "expected numbers") + " in " +
                                (open_low ? "(" : "[") + Text(low) + ", " + Text(high) + (open_high ? ")" : "]"));
         continue;
       }
       if (std::find(out.begin(), out.end(), static_cast<T>(*v)) != out.end()) {
-        Error(item, field, "value listed twice");
+        Fail(item, field, "value listed twice");
         continue;
       }
       out.push_back(static_cast<T>(*v));
@@ -384,26 +384,26 @@ class StudyParser {
     if (g["levels"]) o.levels = NumberList<double>(g, "levels", s, 0, 1, true, true, false);
     if (g["hidden"]) {
       if (!study.truth.random) {
-        Error(g["hidden"], "grid.hidden", "a hidden-count factor needs a random truth");
+        Fail(g["hidden"], "grid.hidden", "a hidden-count factor needs a random truth");
       } else if (!study.truth.random_graph.hidden_list.empty()) {
-        Error(g["hidden"], "grid.hidden", "the random truth lists its hidden positions; give a count instead");
+        Fail(g["hidden"], "grid.hidden", "the random truth lists its hidden positions; give a count instead");
       } else {
         o.hidden_counts = NumberList<int>(g, "hidden", s, 0, study.truth.random_graph.nodes - 1, false, false, true);
       }
     }
     if (g["spectral_radius"]) {
-      if (!study.events) Error(g["spectral_radius"], "grid.spectral_radius", "spectral_radius applies to events");
+      if (!study.events) Fail(g["spectral_radius"], "grid.spectral_radius", "spectral_radius applies to events");
       else o.stationarity = NumberList<double>(g, "spectral_radius", s, 0, 1, true, true, false);
     }
     if (g["drift_bound"]) {
       if (study.events || study.path_process.tanh) {
-        Error(g["drift_bound"], "grid.drift_bound", "drift_bound applies to paths with the linear drift");
+        Fail(g["drift_bound"], "grid.drift_bound", "drift_bound applies to paths with the linear drift");
       } else {
         o.stationarity = NumberList<double>(g, "drift_bound", s, -kInf, 0, true, true, false);
       }
     }
     if (g["spectral_radius"] && g["drift_bound"]) {
-      Error(g["drift_bound"], "grid.drift_bound", "give spectral_radius or drift_bound, not both");
+      Fail(g["drift_bound"], "grid.drift_bound", "give spectral_radius or drift_bound, not both");
     }
     return o;
   }
@@ -413,7 +413,7 @@ class StudyParser {
   std::vector<LearnerSpec> ParseLearners(const YAML::Node& list, bool events) {
     std::vector<LearnerSpec> out;
     if (!list.IsSequence() || list.size() == 0) {
-      Error(list, "learners", "expected a list of learners ({method, test})");
+      Fail(list, "learners", "expected a list of learners ({method, test})");
       return out;
     }
     std::set<std::string> labels;
@@ -427,20 +427,20 @@ class StudyParser {
       if (entry == nullptr) {
         Keys names;
         for (const auto& m : learners::LearningMethods()) names.insert(m.name);
-        Error(l["method"], Join(s, "method"), "unknown method (expected one of: " + List(names) + ")");
+        Fail(l["method"], Join(s, "method"), "unknown method (expected one of: " + List(names) + ")");
         continue;
       }
       spec.method = entry->name;
       spec.test = LearnerTest(l, s, *entry, events);
       spec.screening_size = Whole(l, "size", s, 1, 0, 62);
-      if (l["size"] && spec.method != "screen") Error(l["size"], Join(s, "size"), "only the screen method takes a size");
+      if (l["size"] && spec.method != "screen") Fail(l["size"], Join(s, "size"), "only the screen method takes a size");
       if (l["penalty"]) {
         spec.penalty = Bounded(l, "penalty", s, 1, 0, std::numeric_limits<double>::infinity(), true, true);
-        if (spec.method != "penalized-fit") Error(l["penalty"], Join(s, "penalty"), "only penalized-fit takes a penalty");
+        if (spec.method != "penalized-fit") Fail(l["penalty"], Join(s, "penalty"), "only penalized-fit takes a penalty");
       }
       spec.label = l["name"] ? Name(l["name"], Join(s, "name")) : spec.method + "/" + spec.test;
       if (!labels.insert(spec.label).second) {
-        Error(l, s, "learner '" + spec.label + "' listed twice (give one of them a name)");
+        Fail(l, s, "learner '" + spec.label + "' listed twice (give one of them a name)");
         continue;
       }
       out.push_back(spec);
@@ -452,7 +452,7 @@ class StudyParser {
                           const learners::MethodEntry& entry, bool events) {
     if (!entry.uses_tests) {
       if (l["test"] && !(l["test"].IsScalar() && l["test"].Scalar() == "none")) {
-        Error(l["test"], Join(s, "test"), std::string(entry.name) + " reads the data itself and takes no test");
+        Fail(l["test"], Join(s, "test"), std::string(entry.name) + " reads the data itself and takes no test");
       }
       return "none";
     }
@@ -468,7 +468,7 @@ class StudyParser {
     o.start = Bounded(p, "start", "plan", 0, 0, kInf, true, true);
     o.cap = Bounded(p, "cap", "plan", 0, 0, kInf, true, true);
     o.bisection_steps = Whole(p, "bisection_steps", "plan", o.bisection_steps, 0, 20);
-    if (o.start > 0 && o.cap > 0 && o.cap < o.start) Error(p["cap"], "plan.cap", "must be >= plan.start");
+    if (o.start > 0 && o.cap > 0 && o.cap < o.start) Fail(p["cap"], "plan.cap", "must be >= plan.start");
     return o;
   }
 
@@ -477,13 +477,13 @@ class StudyParser {
     const YAML::Node truth = root["truth"];
     if (!truth || !truth.IsMap()) return;
     const int nodes = s.truth.random ? s.truth.random_graph.nodes : s.truth.explicit_graph.graph.size();
-    if (nodes > 64) Error(truth, "truth", "at most 64 nodes");
+    if (nodes > 64) Fail(truth, "truth", "at most 64 nodes");
     if (!s.truth.random && truth["truths"] && s.truth.truths > 1 && AllFixed(s)) {
-      Error(truth["truths"], "truth.truths",
+      Fail(truth["truths"], "truth.truths",
             "with an explicit graph and fixed parameters every truth would be the same; give ranges or truths: 1");
     }
     if (!s.events && s.truth.random && s.truth.random_graph.loops != graph::LoopPolicy::kAll) {
-      Error(NodeOr(truth["random"], "loops"), "truth.random.loops",
+      Fail(NodeOr(truth["random"], "loops"), "truth.random.loops",
             "diffusion truths need a loop on every node (loops: all): the loop carries the mean reversion");
     }
   }
@@ -506,7 +506,7 @@ class StudyParser {
     const Result<double> radius = sim::SpectralRadius(k);
     if (radius.ok() && *radius >= 1) {
       const YAML::Node events = root["process"]["events"];
-      Error(NodeOr(events, "weight"), "process.events.weight",
+      Fail(NodeOr(events, "weight"), "process.events.weight",
             "with the largest weights the spectral radius of K is " + Text(*radius) +
                 " >= 1 (not stationary); lower weight or loop_weight, or set spectral_radius");
     }
@@ -521,7 +521,7 @@ class StudyParser {
   }
 
   const std::string& file_;
-  std::vector<InputError> errors_;
+  std::vector<Error> errors_;
 };
 
 }  // namespace
@@ -541,21 +541,21 @@ StudyOrErrors ParseStudyText(const std::string& text, const std::string& file) {
   try {
     root = YAML::Load(text);
   } catch (const YAML::ParserException& e) {
-    return std::vector<InputError>{
-        InputError{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg}};
+    return std::vector<Error>{
+        Error{file, e.mark.line + 1, e.mark.column + 1, "", "not valid YAML: " + e.msg}};
   }
   StudyParser parser(file);
   StudySpec spec;
   try {
     spec = parser.Parse(root);
   } catch (const YAML::Exception& e) {
-    std::vector<InputError> errors = parser.errors();
-    errors.push_back(InputError{file, e.mark.line + 1, e.mark.column + 1, "", e.msg});
+    std::vector<Error> errors = parser.errors();
+    errors.push_back(Error{file, e.mark.line + 1, e.mark.column + 1, "", e.msg});
     return errors;
   }
-  std::vector<InputError> errors = parser.errors();
+  std::vector<Error> errors = parser.errors();
   if (!errors.empty()) {
-    std::stable_sort(errors.begin(), errors.end(), [](const InputError& a, const InputError& b) {
+    std::stable_sort(errors.begin(), errors.end(), [](const Error& a, const Error& b) {
       return std::pair(a.line, a.column) < std::pair(b.line, b.column);
     });
     return errors;
@@ -565,11 +565,11 @@ StudyOrErrors ParseStudyText(const std::string& text, const std::string& file) {
 
 StudyOrErrors ReadStudyFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) return std::vector<InputError>{InputError{path, 0, 0, "", "cannot open the file"}};
+  if (!in) return std::vector<Error>{Error{path, 0, 0, "", "cannot open the file"}};
   std::ostringstream text;
   text << in.rdbuf();
   if (text.str().find_first_not_of(" \t\r\n") == std::string::npos) {
-    return std::vector<InputError>{InputError{path, 1, 1, "", "the file is empty"}};
+    return std::vector<Error>{Error{path, 1, 1, "", "the file is empty"}};
   }
   return ParseStudyText(text.str(), path);
 }

@@ -3,19 +3,19 @@
 //
 // Validation runs before any work and does not stop at the first problem:
 // unknown keys, wrong types and impossible values are all reported, one
-// InputError each (FILE:LINE:COLUMN: FIELD: message), in file order.
+// Error each (FILE:LINE:COLUMN: FIELD: message), in file order.
 #pragma once
 
 #include <string>
 #include <variant>
 #include <vector>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_spec.h"
 
 namespace locind::app {
 
-using StudyOrErrors = std::variant<StudySpec, std::vector<InputError>>;
+using StudyOrErrors = std::variant<StudySpec, std::vector<Error>>;
 
 // Parses study text; `file` names the source in errors and gives the default
 // study name (its stem).

@@ -2,7 +2,7 @@
 
 #include <fstream>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 namespace locind::app {
 
@@ -30,7 +30,7 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 
 bool LooksLikeEventFile(const std::string& path) {
   std::ifstream in(path);
-  if (!in) throw InputError{path, 0, 0, "", "cannot open the file"};
+  if (!in) throw Error{path, 0, 0, "", "cannot open the file"};
   for (std::string line; std::getline(in, line);) {
     if (!line.empty() && line.back() == '\r') line.pop_back();
     if (line.empty() || line[0] == '#') continue;

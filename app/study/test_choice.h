@@ -21,7 +21,7 @@ std::optional<learners::HawkesTestOptions> HawkesTestChoice(const std::string& n
 std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& name);
 
 // True when the first line that is not a '#' comment is the event header
-// "time,process". Throws InputError when the file cannot be opened.
+// "time,process". Throws Error when the file cannot be opened.
 bool LooksLikeEventFile(const std::string& path);
 
 }  // namespace locind::app

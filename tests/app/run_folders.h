@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include <unistd.h>
+
 #include "app/cli/command.h"
 
 namespace locind::testing {
@@ -47,7 +49,10 @@ inline std::string LongerTinyStudy() {
 
 struct Scratch {
   fs::path dir;
-  explicit Scratch(const std::string& name) : dir(fs::temp_directory_path() / name) {
+  // `name` plus the process id: parallel ctest processes (and other builds
+  // on the machine) never share a folder.
+  explicit Scratch(const std::string& name)
+      : dir(fs::temp_directory_path() / (name + "_" + std::to_string(::getpid()))) {
     fs::remove_all(dir);
     fs::create_directories(dir);
   }

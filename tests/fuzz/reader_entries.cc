@@ -5,17 +5,17 @@
 
 #include "app/io/event_csv.h"
 #include "app/io/graph_file.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/io/path_csv.h"
 #include "app/study/study_file.h"
 
 namespace locind::fuzz {
 namespace {
 
-using app::InputError;
+using app::Error;
 
 // One problem, one line, located in the file it came from.
-std::string CheckError(const InputError& e) {
+std::string CheckError(const Error& e) {
   if (e.file != kFuzzFile) return "error names the file '" + e.file + "'";
   if (e.line < 0 || e.column < 0) return "negative line or column: " + e.ToString();
   if (e.message.empty()) return "error without a message: " + e.ToString();
@@ -23,12 +23,12 @@ std::string CheckError(const InputError& e) {
   return "";
 }
 
-std::string Lines(const InputError& e) { return e.ToString(); }
-std::string Lines(const app::InputErrors& errors) { return app::ToString(errors); }
+std::string Lines(const Error& e) { return e.ToString(); }
+std::string Lines(const app::Errors& errors) { return app::ToString(errors); }
 
-std::string CheckErrors(const app::InputErrors& errors) {
+std::string CheckErrors(const app::Errors& errors) {
   if (errors.empty()) return "failure without an error";
-  for (const InputError& e : errors) {
+  for (const Error& e : errors) {
     if (std::string problem = CheckError(e); !problem.empty()) return problem;
   }
   return "";
@@ -64,27 +64,27 @@ app::GraphOrError ReadGraph(const std::string& text) {
 
 std::string FeedStudyFile(std::string_view data) {
   app::StudyOrErrors read = app::ParseStudyText(std::string(data), kFuzzFile);
-  if (const auto* errors = std::get_if<app::InputErrors>(&read)) return CheckErrors(*errors);
+  if (const auto* errors = std::get_if<app::Errors>(&read)) return CheckErrors(*errors);
   return "";
 }
 
 std::string FeedGraphFile(std::string_view data) {
   app::GraphOrError read = ReadGraph(std::string(data));
-  if (const auto* e = std::get_if<InputError>(&read)) return CheckError(*e);
+  if (const auto* e = std::get_if<Error>(&read)) return CheckError(*e);
   return CheckRoundTrip(app::FormatGraph(std::get<graph::TruthGraph>(read)), ReadGraph,
                         app::FormatGraph);
 }
 
 std::string FeedEventCsv(std::string_view data) {
   app::EventsOrError read = ReadEvents(std::string(data));
-  if (const auto* e = std::get_if<app::InputErrors>(&read)) return CheckErrors(*e);
+  if (const auto* e = std::get_if<app::Errors>(&read)) return CheckErrors(*e);
   return CheckRoundTrip(app::FormatEventCsv(std::get<sim::EventData>(read)), ReadEvents,
                         app::FormatEventCsv);
 }
 
 std::string FeedPathCsv(std::string_view data) {
   app::PathsOrError read = ReadPaths(std::string(data));
-  if (const auto* e = std::get_if<app::InputErrors>(&read)) return CheckErrors(*e);
+  if (const auto* e = std::get_if<app::Errors>(&read)) return CheckErrors(*e);
   return CheckRoundTrip(app::FormatPathCsv(std::get<sim::PathData>(read)), ReadPaths,
                         app::FormatPathCsv);
 }

@@ -5,13 +5,16 @@
 #include <cmath>
 
 #include "metrics/cell_summary.h"
+#include "tests/graph/brute_force.h"
 
 namespace locind::metrics {
 namespace {
 
 // Truth: h -> a, h -> b (h hidden), a -> a, a -> c. Projection onto a, b, c:
 // a -> a, b -> b (both also implied by the hidden parent), a <-> b, a -> c.
-// The class is computed by the engine; the assertions use its marks.
+// The class is computed by the engine; its edge and solid counts are checked
+// against the brute force (tests/graph/brute_force.h) on the projection
+// written out by hand here, and the expected counts below use the brute force.
 graph::TruthGraph Truth() {
   graph::Dmg g({"a", "b", "c", "h"});
   g.AddDirected(3, 0);
@@ -21,6 +24,42 @@ graph::TruthGraph Truth() {
   return {g, {3}};
 }
 
+struct BruteCounts {
+  int edges = 0, solid = 0;
+  testing::BruteGraph maximal{3};
+};
+
+// The hand projection a -> a, b -> b, a <-> b, a -> c, its maximal graph (F2)
+// and dashed marks (F4) by the brute force.
+BruteCounts Brute() {
+  testing::BruteGraph projection(3);
+  projection.dir[0][0] = projection.dir[1][1] = projection.dir[0][2] = true;
+  projection.bi[0][1] = projection.bi[1][0] = true;
+  BruteCounts out;
+  out.maximal = testing::BruteMaximal(projection);
+  for (bool dashed : testing::BruteDashed(out.maximal)) {
+    ++out.edges;
+    out.solid += !dashed;
+  }
+  return out;
+}
+
+TEST_CASE("the class's maximal graph and marks agree with the brute force") {
+  const TruthClass tc = *ComputeTruthClass(Truth());
+  const BruteCounts brute = Brute();
+  for (int u = 0; u < 3; ++u) {
+    for (int v = 0; v < 3; ++v) {
+      CHECK(tc.maximal.HasDirected(u, v) == brute.maximal.dir[u][v]);
+      if (u != v) CHECK(tc.maximal.HasBidirected(u, v) == brute.maximal.bi[u][v]);
+    }
+  }
+  CHECK(int(tc.edges.size()) == brute.edges);
+  int solid = 0;
+  for (bool d : tc.dashed) solid += !d;
+  CHECK(solid == brute.solid);
+  MESSAGE("brute force: " << brute.edges << " edges, " << brute.solid << " solid");
+}
+
 TEST_CASE("the maximal graph itself is recovered with full power and no false edge") {
   const TruthClass tc = *ComputeTruthClass(Truth());
   const ReplicateScore s = ScoreGraph(tc, tc.maximal);
@@ -28,8 +67,10 @@ TEST_CASE("the maximal graph itself is recovered with full power and no false ed
   CHECK(s.hamming == 0);
   CHECK(s.power == 1.0);
   CHECK(s.false_edge_rate == 0.0);
-  CHECK(s.total.reported == static_cast<int>(tc.edges.size()));
-  CHECK(s.total.solid + s.total.dashed == static_cast<int>(tc.edges.size()));
+  const BruteCounts brute = Brute();
+  CHECK(s.total.reported == brute.edges);
+  CHECK(s.total.solid == brute.solid);
+  CHECK(s.total.solid + s.total.dashed == brute.edges);
 }
 
 TEST_CASE("counts by group for a hand-made learned graph") {
@@ -53,7 +94,7 @@ TEST_CASE("counts by group for a hand-made learned graph") {
   CHECK(loops.false_edges == 1);
   CHECK(s.total.false_edges == 2);
   CHECK(s.false_edge_rate == doctest::Approx(2.0 / 3.0));
-  CHECK(s.power == doctest::Approx(1.0 / s.total.solid));
+  CHECK(s.power == doctest::Approx(1.0 / Brute().solid));
   CHECK_FALSE(s.class_recovered);
   // Audit rows: every reported edge and every solid edge of the truth.
   const auto audit = AuditEdges(tc, learned);
@@ -63,7 +104,7 @@ TEST_CASE("counts by group for a hand-made learned graph") {
     solid += row.truth == TruthStatus::kSolid;
   }
   CHECK(reported == 3);
-  CHECK(solid == s.total.solid);
+  CHECK(solid == Brute().solid);
 }
 
 TEST_CASE("an empty learned graph: power 0, false-edge rate undefined") {
@@ -71,7 +112,7 @@ TEST_CASE("an empty learned graph: power 0, false-edge rate undefined") {
   const ReplicateScore s = ScoreGraph(tc, graph::Dmg(tc.projected.names()));
   CHECK(s.power == 0.0);
   CHECK(std::isnan(s.false_edge_rate));
-  CHECK(s.hamming == static_cast<int>(tc.edges.size()));
+  CHECK(s.hamming == Brute().edges);
 }
 
 TEST_CASE("cell summaries pool counts and skip failed replicates") {

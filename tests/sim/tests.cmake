@@ -5,3 +5,4 @@ locind_test(tests/sim/diffusion_simulator_test.cc)
 # the Debug sanitizer build, hence the calibration label.
 locind_test(tests/sim/ou_reference_test.cc LABELS calibration)
 locind_test(tests/sim/euler_maruyama_test.cc LABELS calibration)
+locind_test(tests/sim/tanh_reference_test.cc LABELS calibration)

@@ -1,20 +1,34 @@
 // Golden outputs of `locind graph ...` on the bundled example, so a changed
-// output format is caught.
+// output format is caught. The graphs in them are not taken from the code:
+// the last test case derives each one with the definition-level brute force
+// (tests/graph/brute_force.h).
 #include <doctest/doctest.h>
 
 #include "tests/app/command_fixture.h"
 
 #include <cstdio>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
+#include <unistd.h>
+
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
+#include "tests/graph/brute_force.h"
 
 namespace locind::app {
 namespace {
 
 using testing::Outcome;
+
+// A file name of this test process in the temporary folder (parallel ctest
+// processes and other builds never share one).
+std::string Scratch(const std::string& name) {
+  return (std::filesystem::temp_directory_path() /
+          ("locind_graph_command_" + std::to_string(::getpid()) + "_" + name))
+      .string();
+}
 
 Outcome Run(const std::vector<std::string>& args) {
   return testing::RunHandler(RunGraphCommand, args);
@@ -62,7 +76,7 @@ TEST_CASE("graph project and class print the projection and the equivalence grap
 }
 
 TEST_CASE("graph equivalent compares projected graphs") {
-  const std::string other = "/tmp/locind_graph_command_test_other.yaml";
+  const std::string other = Scratch("other.yaml");
   {
     // The maximal graph of the example's class, nodes in another order.
     std::ofstream f(other);
@@ -79,22 +93,65 @@ TEST_CASE("graph equivalent compares projected graphs") {
 }
 
 TEST_CASE("graph draw writes DOT and SVG") {
-  const std::string dot = "/tmp/locind_graph_command_test.dot";
+  const std::string dot = Scratch("class.dot");
   REQUIRE(Run({"draw", kExample, "-o", dot, "--class"}).code == kExitOk);
   std::ifstream in(dot);
   std::stringstream text;
   text << in.rdbuf();
   CHECK(text.str().find("\"a\" -> \"c\" [color=\"#0072B2\", dir=both, arrowtail=normal, "
                         "style=dashed]") != std::string::npos);
-  const std::string svg = "/tmp/locind_graph_command_test.svg";
+  const std::string svg = Scratch("graph.svg");
   REQUIRE(Run({"draw", kExample, "-o", svg}).code == kExitOk);
   std::ifstream svg_in(svg);
   std::stringstream svg_text;
   svg_text << svg_in.rdbuf();
   CHECK(svg_text.str().find("<svg") != std::string::npos);
-  CHECK(Run({"draw", kExample, "-o", "/tmp/x.png"}).code == kExitInputError);
+  CHECK(Run({"draw", kExample, "-o", Scratch("refused.png")}).code == kExitInputError);
   std::remove(dot.c_str());
   std::remove(svg.c_str());
+}
+
+// The golden graphs above, derived by the brute force: the projection keeps
+// every separation among a, b, c of the full graph (docs/theory.md F3), the
+// class's edges are the maximal graph (F2) and its dashed edges those whose
+// removal keeps every separation (F4); the `check` answers by the definition.
+TEST_CASE("the golden projection, class and check answers agree with the brute force") {
+  using testing::BruteGraph;
+  enum { a, b, c, h };
+  BruteGraph full(4);  // a -> b, b -> b, h -> a, h -> c, c -> b
+  full.dir[a][b] = full.dir[b][b] = full.dir[h][a] = full.dir[h][c] = full.dir[c][b] = true;
+  BruteGraph projection(3);  // golden: a -> a, a -> b, b -> b, c -> b, c -> c, a <-> c
+  projection.dir[a][a] = projection.dir[a][b] = projection.dir[b][b] = true;
+  projection.dir[c][b] = projection.dir[c][c] = true;
+  projection.bi[a][c] = projection.bi[c][a] = true;
+  int compared = 0;
+  for (int from = 0; from < 3; ++from) {
+    for (int to = 0; to < 3; ++to) {
+      for (uint32_t given = 0; given < 8; ++given) {
+        if ((given >> from) & 1) continue;
+        CHECK(testing::BruteConnected(full, from, to, given) ==
+              testing::BruteConnected(projection, from, to, given));
+        ++compared;
+      }
+    }
+  }
+  CHECK(compared == 36);
+  // Golden class: a -> a, a -> b, a -> c, b -> b, c -> a, c -> b, c -> c,
+  // a <-> c; dashed a -> a, a -> c, c -> a, c -> c, a <-> c.
+  BruteGraph maximal = projection;
+  maximal.dir[a][c] = maximal.dir[c][a] = true;
+  CHECK(testing::BruteMaximal(projection) == maximal);
+  std::vector<bool> dashed;  // in AllEdges order over the maximal graph's edges
+  for (const testing::BruteEdge& e : testing::AllEdges(3)) {
+    if (!testing::HasEdge(maximal, e)) continue;
+    const bool is_loop_or_ac = e.bidirected || (e.u != b && e.v != b);
+    dashed.push_back(is_loop_or_ac);  // every edge not touching b
+  }
+  CHECK(testing::BruteDashed(maximal) == dashed);
+  // The three `check` answers (bit masks: a = 1, b = 2, c = 4).
+  CHECK(testing::BruteConnected(full, c, b, 1 | 2));        // connected
+  CHECK_FALSE(testing::BruteConnected(full, b, a, 1 | 4));  // separated
+  CHECK(testing::BruteConnected(full, a, c, 0));            // connected
 }
 
 }  // namespace

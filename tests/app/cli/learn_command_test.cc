@@ -8,8 +8,11 @@
 #include <fstream>
 #include <sstream>
 
+#include <unistd.h>
+
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
+#include "tests/graph/brute_force.h"
 
 namespace locind::app {
 namespace {
@@ -71,10 +74,29 @@ TEST_CASE("pairwise on the example: the projection's directed edges and more") {
         "nodes: [a, b, c]\n"
         "edges: [a -> a, a -> b, a -> c, b -> b, c -> a, c -> b, c -> c]\n"
         "# method pairwise, test oracle, tests 9, not estimable 0, largest conditioning set 2\n");
+  // The edge list derived by the brute force (tests/graph/brute_force.h) from
+  // pairwise's rule (learners/methods/pairwise_learner.h): x -> y unless y is
+  // separated from x given every observed process but x, in the full graph
+  // a -> b, b -> b, h -> a, h -> c, c -> b. 3 x 3 ordered pairs = 9 tests,
+  // each given the 2 other processes. Only b -> a and b -> c are absent.
+  testing::BruteGraph full(4);
+  enum { a, b, c, h };
+  full.dir[a][b] = full.dir[b][b] = full.dir[h][a] = full.dir[h][c] = full.dir[c][b] = true;
+  std::string edges;
+  for (int x = 0; x < 3; ++x) {
+    for (int y = 0; y < 3; ++y) {
+      const uint32_t others = 7u & ~(1u << x);
+      if (testing::BruteConnected(full, x, y, others)) {
+        edges += std::string(edges.empty() ? "" : ", ") + "abc"[x] + " -> " + "abc"[y];
+      }
+    }
+  }
+  CHECK(edges == "a -> a, a -> b, a -> c, b -> b, c -> a, c -> b, c -> c");
 }
 
 TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
-  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_command_test";
+  const auto dir = std::filesystem::temp_directory_path() /
+                   ("locind_learn_command_test_" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
   const Outcome o = Learn({"--oracle", kExample, "--method", "screen", "--out", dir.string()});
   REQUIRE(o.code == kExitOk);
@@ -99,7 +121,8 @@ TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
 }
 
 TEST_CASE("a data run: path file with the drift test") {
-  const auto file = std::filesystem::temp_directory_path() / "locind_learn_paths.csv";
+  const auto file = std::filesystem::temp_directory_path() /
+                    ("locind_learn_paths_" + std::to_string(::getpid()) + ".csv");
   {
     std::ofstream out(file);
     out << "time,x1,x2\n";

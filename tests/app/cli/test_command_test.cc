@@ -14,7 +14,7 @@
 
 #include "app/cli/command.h"
 #include "app/io/event_csv.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/io/path_csv.h"
 #include "graph/dmg.h"
 #include "learners/independence/drift_test.h"

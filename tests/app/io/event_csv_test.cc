@@ -15,8 +15,8 @@ EventsOrError Read(const std::string& text) {
 
 std::string ErrorOf(const std::string& text) {
   EventsOrError r = Read(text);
-  REQUIRE(std::holds_alternative<InputErrors>(r));
-  return ToString(std::get<InputErrors>(r));
+  REQUIRE(std::holds_alternative<Errors>(r));
+  return ToString(std::get<Errors>(r));
 }
 
 TEST_CASE("event file: exact golden text and round trip") {

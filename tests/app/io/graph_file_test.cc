@@ -5,10 +5,10 @@
 namespace locind::app {
 namespace {
 
-InputError ErrorOf(const std::string& text) {
+Error ErrorOf(const std::string& text) {
   GraphOrError r = ParseGraphText(text, "g.yaml");
-  REQUIRE(std::holds_alternative<InputError>(r));
-  return std::get<InputError>(r);
+  REQUIRE(std::holds_alternative<Error>(r));
+  return std::get<Error>(r);
 }
 
 TEST_CASE("reads nodes, edges and hidden nodes") {
@@ -62,8 +62,8 @@ TEST_CASE("errors name the file, line, column and field") {
 
 TEST_CASE("a missing or empty file is an input error") {
   GraphOrError r = ReadGraphFile("/nonexistent/graph.yaml");
-  REQUIRE(std::holds_alternative<InputError>(r));
-  CHECK(std::get<InputError>(r).ToString() == "/nonexistent/graph.yaml: cannot open the file");
+  REQUIRE(std::holds_alternative<Error>(r));
+  CHECK(std::get<Error>(r).ToString() == "/nonexistent/graph.yaml: cannot open the file");
 }
 
 }  // namespace

@@ -7,8 +7,8 @@ namespace {
 
 std::string ErrorOf(const std::string& text) {
   ModelOrError r = ParseModelText(text, "m.yaml");
-  REQUIRE(std::holds_alternative<InputError>(r));
-  return std::get<InputError>(r).ToString();
+  REQUIRE(std::holds_alternative<Error>(r));
+  return std::get<Error>(r).ToString();
 }
 
 TEST_CASE("events model: defaults, per-edge kernels, run options") {

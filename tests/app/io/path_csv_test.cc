@@ -14,8 +14,8 @@ PathsOrError Read(const std::string& text) {
 
 std::string ErrorOf(const std::string& text) {
   PathsOrError r = Read(text);
-  REQUIRE(std::holds_alternative<InputErrors>(r));
-  return ToString(std::get<InputErrors>(r));
+  REQUIRE(std::holds_alternative<Errors>(r));
+  return ToString(std::get<Errors>(r));
 }
 
 TEST_CASE("path file: golden text and round trip") {

@@ -18,7 +18,7 @@
 
 #include "app/cli/command.h"
 #include "app/io/external_program.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "tests/app/command_fixture.h"
 #include "tests/app/run_folders.h"
 

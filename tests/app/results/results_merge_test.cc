@@ -7,10 +7,13 @@
 
 #include <filesystem>
 #include <fstream>
+#include <string>
+
+#include <unistd.h>
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "tests/app/command_fixture.h"
 #include "tests/app/run_folders.h"
 
@@ -39,7 +42,8 @@ void WriteAll(const fs::path& p, const std::string& text) {
 
 // Part folders 1/2 and 2/2 of kStudy, made once; each check edits copies.
 struct Parts {
-  fs::path dir = fs::temp_directory_path() / "locind_results_merge_test";
+  // Per test process: ctest runs this file's test cases in parallel.
+  fs::path dir = fs::temp_directory_path() / ("locind_results_merge_test_" + std::to_string(::getpid()));
   Parts() {
     fs::remove_all(dir);
     fs::create_directories(dir);

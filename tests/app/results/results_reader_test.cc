@@ -8,6 +8,8 @@
 #include <filesystem>
 #include <fstream>
 
+#include <unistd.h>
+
 #include "app/results/results_rows.h"
 #include "app/running/study_planner.h"
 
@@ -16,9 +18,13 @@ namespace {
 
 namespace fs = std::filesystem;
 
+// A result folder of its own per test process and test case: ctest runs the
+// test cases of this file as parallel processes.
 struct Folder {
-  fs::path dir = fs::temp_directory_path() / "locind_report_data_test";
-  Folder() {
+  fs::path dir;
+  explicit Folder(const std::string& test)
+      : dir(fs::temp_directory_path() /
+            ("locind_report_data_test_" + std::to_string(::getpid()) + "_" + test)) {
     fs::remove_all(dir);
     fs::create_directories(dir);
     Write("summary.csv", SummaryHeader() + "\n" +
@@ -34,7 +40,7 @@ struct Folder {
 };
 
 TEST_CASE("the files of a result folder read back by column name") {
-  Folder f;
+  Folder f("read_back");
   const Result<ReportData> d = ReadReportData(f.dir.string());
   REQUIRE_MESSAGE(d.ok(), (d.ok() ? "" : d.status().message()));
   REQUIRE(d->summary.size() == 1);
@@ -60,7 +66,7 @@ TEST_CASE("the files of a result folder read back by column name") {
 }
 
 TEST_CASE("plan.csv is read when present") {
-  Folder f;
+  Folder f("plan");
   LearnerPlan reached;
   reached.learner = "pairwise/hawkes-lr";
   reached.reached = true;
@@ -81,7 +87,7 @@ TEST_CASE("plan.csv is read when present") {
 }
 
 TEST_CASE("missing files, ragged rows and bad numbers name file, line, column and field") {
-  Folder f;
+  Folder f("problems");
   fs::remove(f.dir / "null_tests.csv");
   Result<ReportData> d = ReadReportData(f.dir.string());
   REQUIRE_FALSE(d.ok());

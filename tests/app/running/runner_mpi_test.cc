@@ -19,7 +19,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/running/runner_journal.h"
 #include "tests/app/run_folders.h"
 

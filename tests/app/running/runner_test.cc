@@ -16,7 +16,7 @@
 #include <unistd.h>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/running/runner_journal.h"
 #include "app/running/runner_mpi.h"
 #include "tests/app/run_folders.h"

@@ -6,9 +6,12 @@
 
 #include <filesystem>
 #include <fstream>
+#include <string>
+
+#include <unistd.h>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_file.h"
 #include "tests/app/command_fixture.h"
 
@@ -123,7 +126,7 @@ TEST_CASE("memory_mb: the study refusal and the event cap of a replicate") {
 }
 
 TEST_CASE("locind run --check prints the work and writes nothing, and too much memory is refused") {
-  const fs::path dir = fs::temp_directory_path() / "locind_study_cost_test";
+  const fs::path dir = fs::temp_directory_path() / ("locind_study_cost_test_" + std::to_string(::getpid()));
   fs::remove_all(dir);
   fs::create_directories(dir);
   const std::string study = (dir / "costly.yaml").string();

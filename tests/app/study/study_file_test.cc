@@ -5,10 +5,13 @@
 
 #include <filesystem>
 #include <fstream>
+#include <string>
+
+#include <unistd.h>
 #include <sstream>
 
 #include "app/cli/command.h"
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 #include "app/study/study_file.h"
 #include "app/study/study_grid.h"
 
@@ -17,8 +20,8 @@ namespace {
 
 std::vector<std::string> Messages(const StudyOrErrors& read) {
   std::vector<std::string> out;
-  if (const auto* errors = std::get_if<std::vector<InputError>>(&read)) {
-    for (const InputError& e : *errors) out.push_back(e.ToString());
+  if (const auto* errors = std::get_if<std::vector<Error>>(&read)) {
+    for (const Error& e : *errors) out.push_back(e.ToString());
   }
   return out;
 }
@@ -195,7 +198,8 @@ TEST_CASE("an explicit event truth must be stationary at the upper ends of its w
 }
 
 TEST_CASE("locind run on a bad study: exit 2, one line per problem, no output folder") {
-  const std::filesystem::path dir = std::filesystem::temp_directory_path() / "locind_study_file_test";
+  const std::filesystem::path dir = std::filesystem::temp_directory_path() /
+                                    ("locind_study_file_test_" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
   std::filesystem::create_directories(dir);
   const std::string study = (dir / "bad.yaml").string();

@@ -71,9 +71,10 @@ TEST_CASE("filtered histories follow the recursion") {
   CHECK(test.Response(0)[2] == 4);
 }
 
-TEST_CASE("the F statistic of one coefficient is the squared t statistic") {
-  // Greene 2012, Econometric Analysis, 7th ed., Sec. 5.3: with q = 1 the
-  // nested-model F equals t^2 of the full fit.
+TEST_CASE("the F statistic of two coefficients (q = 2) is the Wald statistic over q") {
+  // Greene 2012, Econometric Analysis, 7th ed., Sec. 5.3: the nested-model F
+  // of q linear restrictions equals the Wald form with s^2 divided by q (for
+  // q = 1 that is t^2; the body checks q = 2).
   sim::PathData d = Draw(0.5, 200, 1);
   auto test = DriftTest::Create(d, {.rates = {}}).value();
   const TestResult r = test.Run({1, {0}, {1}});

@@ -3,7 +3,9 @@
 // Under the null, data are simulated from linear Hawkes truths where b is
 // mu-separated from a given C in the (projected) truth; p-values should be
 // uniform (Kolmogorov-Smirnov) and the rejection count at level 0.05 should
-// lie in its exact binomial 99% interval. The linear model with the plain
+// lie in its exact binomial interval, both sized by the rule in
+// calibration_checks.h (family-wise 0.001, Bonferroni over the file's 8 null
+// checks). The linear model with the plain
 // chi-squared reference is conservative at the boundary theta_A = 0 (see
 // learners/independence/hawkes_lr_test.h): there we assert only that the rejection rate
 // is not above the interval's upper end and record the measured rate.
@@ -22,9 +24,13 @@ namespace locind::learners {
 namespace {
 
 constexpr int kReplicates = 300;
-// SciPy 1.10: stats.kstwo.ppf(0.99, 300) = 0.09336 (the 1% critical value of
-// the Kolmogorov-Smirnov distance for n = 300).
-constexpr double kKsCritical = 0.09336;
+// Null checks of this file: per null case, the chi-squared upper end, the
+// chi-bar-squared interval, the signed interval and the signed KS distance
+// (CheckNull), times two null cases.
+constexpr int kNullChecks = 8;
+// SciPy 1.10: stats.kstwo.ppf(1 - 0.001 / 8, 300) = 0.126284 (the critical
+// value of the Kolmogorov-Smirnov distance for n = 300 at level 0.001 / 8).
+constexpr double kKsCritical = 0.126284;
 
 // a -> c -> b (null for b given {b, c}), optionally with a hidden mediator
 // c -> h -> b; or a -> b (alternative, `weight` on the edge).
@@ -97,7 +103,9 @@ void Report(const char* name, const std::vector<std::vector<double>>& p) {
 }
 
 void CheckNull(const std::vector<std::vector<double>>& p) {
-  const auto [lo, hi] = BinomialInterval(kReplicates, 0.05, 0.99);  // [6, 25] for n = 300 (SciPy binom.ppf)
+  // [3, 31] for n = 300 (SciPy 1.10: stats.binom.ppf([0.001 / 16,
+  // 1 - 0.001 / 16], 300, 0.05)); a rate of 10.5% exceeds 31 half the time.
+  const auto [lo, hi] = BinomialInterval(kReplicates, 0.05, PerCheckCoverage(kNullChecks));
   // Linear, chi-squared reference: conservative at the boundary, so only the
   // upper end is asserted.
   CHECK(CountBelow(p[0], 0.05) <= hi);
@@ -112,15 +120,21 @@ void CheckNull(const std::vector<std::vector<double>>& p) {
   CHECK(KolmogorovSmirnovDistance(p[2]) < kKsCritical);
 }
 
-// Seed note: with seed 101 (and an earlier softplus scale of a tenth of the
-// rate) the signed variant rejected 26 of 300 here, one above the 99%
-// interval (about a 1% chance per check for a calibrated test); separate runs
-// of 1,000 replicates (seed 11, rates {0.5, 2, 8}) gave 48/1000 at 0.05,
-// 10/1000 at 0.01 and 105/1000 at 0.10 for it (current scale), 42, 9 and 89
-// for chi-bar-squared and 6, 0 and 13 for plain chi-squared, so the seed was
-// changed to 111.
+// Seed history: this case was written with seed 101. With the earlier
+// per-check 99% interval [6, 25] (eight such checks: about an 8% chance that
+// one fails for calibrated tests) the signed variant, then with a softplus
+// scale of a tenth of the rate, rejected 26 of 300 here and the seed was
+// moved to 111. That was wrong; the seed is back at 101 and the bands are
+// sized for the number of checks (calibration_checks.h). On 2026-12-02 the
+// signed variant still rejects 26 of 300 at seed 101 (printed by Report):
+// inside [3, 31], but P(X >= 26) = 0.005 for a calibrated test (SciPy
+// binom.sf(25, 300, 0.05)), so its calibration deserves a longer look.
+// Runs of 1,000 replicates of this case (seed 11) were measured once by hand
+// on 2026-12-01, not re-run by the suite: rejections at 0.05 / 0.01 / 0.10
+// were 48, 10, 105 (signed), 42, 9, 89 (chi-bar-squared), 6, 0, 13
+// (chi-squared).
 TEST_CASE("null without hidden processes: a -> c -> b, b given {b, c}") {
-  const auto p = Run(Setting::kNull, 0.3, 1000, kReplicates, 111);
+  const auto p = Run(Setting::kNull, 0.3, 1000, kReplicates, 101);
   Report("hawkes null", p);
   CheckNull(p);
 }
@@ -134,6 +148,7 @@ TEST_CASE("null with a hidden mediator: a -> c -> h -> b, h hidden, b given {b, 
 TEST_CASE("strong alternative with a long window: a -> b") {
   const auto p = Run(Setting::kAlternative, 0.3, 2000, 50, 103);
   Report("hawkes alternative w=0.3 T=2000", p);
+  // Power check (not sized by the null rule; threshold from the printed counts).
   for (int v = 0; v < 3; ++v) CHECK(CountBelow(p[v], 0.05) >= 49);
 }
 
@@ -145,8 +160,13 @@ TEST_CASE("power grows with the window for a weak effect") {
   CHECK(CountBelow(long_window[0], 0.05) > CountBelow(short_window[0], 0.05));
   CHECK(CountBelow(long_window[1], 0.05) > CountBelow(short_window[1], 0.05));
   CHECK(CountBelow(long_window[2], 0.05) > CountBelow(short_window[2], 0.05));
-  // Measured: the chi-bar-squared reference gains power over chi-squared.
+  // Property, true by construction and not a measurement: the chi-bar-squared
+  // survival is a mixture of chi^2_i survivals with i <= df, each no larger
+  // than the chi^2_df one at the same statistic, so its p-value is never
+  // above the chi-squared p-value and its rejection count never below.
   CHECK(CountBelow(long_window[1], 0.05) >= CountBelow(long_window[0], 0.05));
+  // Power check (not sized by the null rule): at least half of the 100
+  // replicates reject; the threshold is set from the counts printed above.
   CHECK(CountBelow(long_window[1], 0.05) >= 50);
 }
 

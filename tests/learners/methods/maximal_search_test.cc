@@ -29,7 +29,8 @@ TEST_CASE("worked example: a hidden common driver") {
   g.Add({0, 1, EdgeKind::kBidirected});
   const LearnResult r = RunOnGraph(g);
   const BitGraph learned = *graph::ToBitGraph(r.graph);
-  // The maximal graph adds nothing here (checked against the engine below).
+  // The maximal graph adds the two directed edges x1 -> x2 and x2 -> x1
+  // (asserted below; checked against the engine).
   CHECK(learned == *graph::MaximalGraph(g));
   CHECK(learned.HasBidirected(0, 1));
   CHECK(learned.HasDirected(0, 1));

@@ -1,4 +1,4 @@
-#include "app/io/input_error.h"
+#include "app/io/error.h"
 
 #include <cstdio>
 #include <sstream>
@@ -28,8 +28,24 @@ void PutVisible(std::ostream& out, const std::string& text) {
 
 }  // namespace
 
-std::string InputError::ToString() const {
+int ExitCode(ErrorKind kind) {
+  switch (kind) {
+    case ErrorKind::kBadInput:
+    case ErrorKind::kBadUsage:
+      return kExitInputError;
+    case ErrorKind::kFileSystem:
+    case ErrorKind::kInternal:
+      return kExitFailure;
+  }
+  return kExitFailure;
+}
+
+std::string Error::ToString() const {
   std::ostringstream out;
+  if (file.empty() && line == 0 && field.empty()) {
+    PutVisible(out, message);
+    return out.str();
+  }
   PutVisible(out, file);
   if (line > 0) {
     out << ':' << line;
@@ -44,21 +60,21 @@ std::string InputError::ToString() const {
   return out.str();
 }
 
-std::string ToString(const InputErrors& errors) {
+std::string ToString(const Errors& errors) {
   std::string lines;
-  for (const InputError& e : errors) {
+  for (const Error& e : errors) {
     if (!lines.empty()) lines += '\n';
     lines += e.ToString();
   }
   return lines;
 }
 
-bool AddInputError(InputErrors& errors, InputError e) {
+bool AddError(Errors& errors, Error e) {
   const std::string file = e.file;
   errors.push_back(std::move(e));
-  if (errors.size() < kMaxInputErrors) return false;
+  if (errors.size() < kMaxErrors) return false;
   errors.push_back(
-      InputError{file, 0, 0, "", "stopped after " + std::to_string(kMaxInputErrors) + " problems"});
+      Error{file, 0, 0, "", "stopped after " + std::to_string(kMaxErrors) + " problems"});
   return true;
 }
 

@@ -1,0 +1,1 @@
+locind_test(tests/base/hashing_test.cc)
