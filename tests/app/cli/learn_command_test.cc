@@ -142,6 +142,35 @@ TEST_CASE("a data run: path file with the drift test") {
   std::filesystem::remove(file);
 }
 
+TEST_CASE("tests that cannot be computed: counted with reasons on stderr, no p-value in tests.csv") {
+  // a has 4 events, fewer than the Hawkes test needs for a target (10,
+  // min_target_events in learners/independence/hawkes_lr_test.h); b has 40.
+  const auto file = std::filesystem::temp_directory_path() / "locind_learn_few.csv";
+  {
+    std::ofstream out(file);
+    out << "time,process\n";
+    for (int i = 0; i < 40; ++i) {
+      out << 0.5 + i << ",b\n";
+      if (i % 13 == 0) out << 0.7 + i << ",a\n";
+    }
+  }
+  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_few";
+  std::filesystem::remove_all(dir);
+  const Outcome o = Learn({file.string(), "--method", "pairwise", "--out", dir.string()});
+  CHECK(o.code == kExitOk);
+  // pairwise asks 4 tests; the two with target a cannot be computed.
+  CHECK(o.err.rfind("locind learn: warning: 2 of 4 tests not estimable", 0) == 0);
+  CHECK(o.err.find("too few events") != std::string::npos);
+  const std::string log = ReadAll(dir / "tests.csv");
+  CHECK(log.find(",,,,not estimable,,too few events") != std::string::npos);
+  // Both edges into a are kept as undecided, with that test as witness.
+  const std::string decisions = ReadAll(dir / "decisions.csv");
+  CHECK(decisions.find("\nb -> a,,undecided,test,not estimable,a,b,a,,,not estimable: too few") !=
+        std::string::npos);
+  std::filesystem::remove_all(dir);
+  std::filesystem::remove(file);
+}
+
 TEST_CASE("bad input: one line, exit code 2, no output") {
   const Outcome unknown = Learn({"--oracle", kExample, "--method", "nope"});
   CHECK(unknown.code == kExitInputError);
