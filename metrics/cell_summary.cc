@@ -53,6 +53,8 @@ CellSummary Summarize(const std::vector<ReplicateRecord>& records, const Learner
     for (int g = 0; g < kEdgeGroups; ++g) s.groups[g].totals += r.score.by_group[g];
     s.marks_compared += r.score.marks_compared;
     s.marks_agree += r.score.marks_agree;
+    s.not_estimable += r.not_estimable;  // why edges were lost
+    s.attribution += r.attribution;
   }
   s.truths = DistinctTruths(records);
   s.power_ceiling = Ceiling(s);

@@ -32,6 +32,7 @@
 #include <vector>
 
 #include "base/random_stream.h"
+#include "metrics/error_attribution.h"
 #include "metrics/intervals.h"
 #include "metrics/replicate_score.h"
 
@@ -47,6 +48,9 @@ struct ReplicateRecord {
   double tests = 0;
   double largest_given = 0;
   double seconds = 0;
+  // --- Why edges were lost (metrics/error_attribution.h) ---
+  int not_estimable = 0;            // tests that could not be computed
+  ErrorAttribution attribution;     // counts only
 };
 
 // Which edge groups a method can report at all, and whether it marks its
@@ -86,6 +90,9 @@ struct CellSummary {
   int marks_compared = 0;
   int marks_agree = 0;
   Interval mark_agreement;
+  // --- Why edges were lost: sums over the replicates that ran ---
+  int not_estimable = 0;
+  ErrorAttribution attribution;  // counts only
 };
 
 // `random` drives the bootstrap resamples (key it by study seed, cell and

@@ -3,6 +3,7 @@ locind_layer(locind_metrics
   DEPS locind_methods
   SOURCES
     metrics/cell_summary.cc
+    metrics/error_attribution.cc
     metrics/intervals.cc
     metrics/pvalue_calibration.cc
     metrics/replicate_score.cc

@@ -9,7 +9,9 @@
 // paths. The learned graph is printed (graph file format plus the dashed
 // edges and a cost line, or with --json the shape of `locind graph class
 // --json`). With --out the directory receives graph.json, graph.dot,
-// graph.svg and tests.csv (one row per test made).
+// graph.svg, tests.csv (one row per test made) and decisions.csv (why each
+// candidate edge was kept or removed: phase, rule, witness tests). Tests
+// that could not be computed are counted on stderr with their reasons.
 #include <boost/program_options.hpp>
 #include <filesystem>
 #include <fstream>
@@ -18,6 +20,8 @@
 
 #include "app/io/atomic_file.h"
 #include "app/io/error.h"
+#include "app/results/decision_rows.h"
+#include "app/results/results_rows.h"
 #include "base/number_format.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
@@ -147,13 +151,15 @@ std::string ListText(const std::vector<int>& nodes, const std::vector<std::strin
 std::string TestLogCsv(const LearnResult& r) {
   const std::vector<std::string>& names = r.graph.names();
   std::ostringstream out;
-  out << "target,sources,given,statistic,df,p_value,status,decision\n";
+  out << "target,sources,given,statistic,df,p_value,status,decision,reason\n";
   for (const learners::TestRecord& t : r.log) {
+    // Not estimable: no statistic, df or p-value, and no decision.
+    const bool ok = t.status == learners::TestStatus::kOk;
     out << names[t.target] << "," << ListText(t.sources, names) << "," << ListText(t.given, names)
-        << "," << base::FormatNumber(t.statistic) << "," << base::FormatNumber(t.df) << ","
-        << base::FormatNumber(t.p_value) << ","
-        << (t.status == learners::TestStatus::kOk ? "ok" : "not estimable") << ","
-        << (t.dependent ? "dependent" : "independent") << "\n";
+        << "," << (ok ? Num(t.statistic) : "") << "," << (ok ? Num(t.df) : "") << ","
+        << (ok ? Num(t.p_value) : "") << "," << (ok ? "ok" : "not estimable") << ","
+        << (ok ? (t.dependent ? "dependent" : "independent") : "") << "," << CleanText(t.reason)
+        << "\n";
   }
   return out.str();
 }
@@ -172,7 +178,8 @@ void WriteOutputs(const LearnResult& r, const std::string& dir) {
       {"graph.json", GraphJson(r.graph, style.dashed) + "\n"},
       {"graph.dot", dot},
       {"graph.svg", *svg},
-      {"tests.csv", TestLogCsv(r)}};
+      {"tests.csv", TestLogCsv(r)},
+      {"decisions.csv", DecisionsCsv(r)}};
   for (const auto& [name, content] : files) {
     Status written = WriteFileAtomically(dir + "/" + name, content);
     if (!written.ok()) throw FileSystemError(written.message());
@@ -182,7 +189,11 @@ void WriteOutputs(const LearnResult& r, const std::string& dir) {
 void PrintResult(const LearnResult& r, bool json, std::ostream& out) {
   const std::vector<graph::Edge> dashed = learners::DashedEdges(r);
   if (json) {
-    out << GraphJson(r.graph, dashed) << "\n";
+    // The shape of `graph class --json`, with one more key: "decisions".
+    std::string text = GraphJson(r.graph, dashed);
+    const size_t close = text.rfind('}');
+    text.insert(close, ", \"decisions\": " + DecisionsJson(r));
+    out << text << "\n";
     return;
   }
   out << FormatGraph(graph::TruthGraph{r.graph, {}});
@@ -206,7 +217,7 @@ int ListMethods(std::ostream& out) {
   return kExitOk;
 }
 
-int Learn(const std::vector<std::string>& args, std::ostream& out) {
+int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   const LearnOptions o = ParseOptions(args);
   if (o.list) return ListMethods(out);
   const learners::MethodEntry* entry = learners::FindMethod(o.method);
@@ -221,6 +232,9 @@ int Learn(const std::vector<std::string>& args, std::ostream& out) {
   if (!result.ok()) throw UsageError{result.status().message()};
   if (!o.out.empty()) WriteOutputs(*result, o.out);
   PrintResult(*result, o.json, out);
+  if (const std::string warning = NotEstimableWarning(result->log); !warning.empty()) {
+    err << "locind learn: warning: " << warning << "\n";
+  }
   return kExitOk;
 }
 
@@ -237,8 +251,10 @@ const char kLearnHelp[] =
     "  --size K         screen: at most K processes in C besides the target (default 1)\n"
     "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"
     "  --oracle FILE    answer tests from the graph file (hidden nodes hidden)\n"
-    "  --out DIR        write graph.json, graph.dot, graph.svg and tests.csv into DIR\n"
-    "  --json           print the graph as JSON (the shape of graph class --json)\n";
+    "  --out DIR        write graph.json, graph.dot, graph.svg, tests.csv and decisions.csv\n"
+    "                   (why each candidate edge was kept or removed) into DIR\n"
+    "  --json           print the graph as JSON (the shape of graph class --json, plus\n"
+    "                   \"decisions\")\n";
 
 }  // namespace
 
@@ -248,7 +264,7 @@ int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std
     return kExitOk;
   }
   return GuardCommand("learn", err, [&] {
-    return Learn(args, out);
+    return Learn(args, out, err);
   });
 }
 

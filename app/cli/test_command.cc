@@ -177,14 +177,19 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
            const learners::TestResult& r, bool json, std::ostream& out) {
   const std::vector<std::string>& names = test.names();
   const bool ok = r.status == learners::TestStatus::kOk;
+  // A result that could not be computed has no statistic, df or p-value
+  // (the in-memory p = 1 is not evidence of independence): empty / null.
+  auto number = [ok, json](double v) {
+    return ok ? base::FormatNumber(v) : std::string(json ? "null" : "");
+  };
   if (json) {
     out << "{\"query\": " << JsonString(QueryText(names, q))
         << ", \"target_past_given\": " << (TargetPastGiven(q) ? "true" : "false")
         << ", \"target\": " << JsonString(names[q.target])
         << ", \"sources\": " << NameList(q.sources, names, true)
         << ", \"given\": " << NameList(q.given, names, true) << ", \"test\": "
-        << JsonString(test.kind()) << ", \"statistic\": " << base::FormatNumber(r.statistic)
-        << ", \"df\": " << base::FormatNumber(r.df) << ", \"p_value\": " << base::FormatNumber(r.p_value)
+        << JsonString(test.kind()) << ", \"statistic\": " << number(r.statistic)
+        << ", \"df\": " << number(r.df) << ", \"p_value\": " << number(r.p_value)
         << ", \"status\": " << (ok ? "\"ok\"" : "\"not estimable\"")
         << ", \"reason\": " << JsonString(r.reason) << "}\n";
     return;
@@ -192,8 +197,8 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
   out << "query: " << QueryText(names, q) << "\ntarget: " << names[q.target]
       << "\nsources: " << NameList(q.sources, names, false)
       << "\ngiven: " << NameList(q.given, names, false) << "\ntest: " << test.kind()
-      << "\nstatistic: " << base::FormatNumber(r.statistic) << "\ndf: " << base::FormatNumber(r.df)
-      << "\np_value: " << base::FormatNumber(r.p_value)
+      << "\nstatistic: " << number(r.statistic) << "\ndf: " << number(r.df)
+      << "\np_value: " << number(r.p_value)
       << "\nstatus: " << (ok ? "ok" : "not estimable: " + r.reason) << "\n";
 }
 
@@ -203,7 +208,13 @@ int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o) : PathTest(o);
   const learners::TestQuery query = MakeQuery(*test, o);
   WarnWithoutTargetPast(test->names(), query, err);
-  Print(*test, query, test->Run(query), o.json, out);
+  const learners::TestResult result = test->Run(query);
+  Print(*test, query, result, o.json, out);
+  if (result.status != learners::TestStatus::kOk) {
+    err << "locind test: warning: 1 of 1 tests not estimable (neither separation nor "
+           "dependence): "
+        << (result.reason.empty() ? "no reason given" : result.reason) << " (1)\n";
+  }
   return kExitOk;
 }
 

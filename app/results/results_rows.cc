@@ -2,9 +2,11 @@
 #include "base/number_format.h"
 
 #include <cmath>
+#include <iterator>
 #include <sstream>
 
 #include "app/io/event_csv.h"
+#include "app/results/decision_rows.h"
 
 namespace locind::app {
 namespace {
@@ -15,6 +17,28 @@ constexpr const char* kCountNames[] = {"reported", "in_class", "false_edges", "s
 std::vector<int*> CountFields(metrics::EdgeCounts& c) {
   return {&c.reported, &c.in_class, &c.false_edges, &c.solid,
           &c.solid_found, &c.missed_solid, &c.dashed, &c.dashed_found};
+}
+
+// --- Why edges were lost (metrics/error_attribution.h) ---
+
+constexpr const char* kAttributionNames[] = {
+    "test_correct",     "test_false_separation", "test_false_dependence", "missed_own_test",
+    "missed_propagation", "missed_reach",        "false_own_test",        "false_propagation",
+    "false_not_estimable", "false_reach"};
+
+std::vector<int*> AttributionFields(metrics::ErrorAttribution& a) {
+  return {&a.tests.correct,       &a.tests.false_separation, &a.tests.false_dependence,
+          &a.missed_own_test,     &a.missed_propagation,     &a.missed_reach,
+          &a.false_own_test,      &a.false_propagation,      &a.false_not_estimable,
+          &a.false_reach};
+}
+
+constexpr size_t kAttributionColumns = std::size(kAttributionNames);
+
+std::string AttributionHeader() {
+  std::string h;
+  for (const char* n : kAttributionNames) h += std::string(",") + n;
+  return h;
 }
 
 std::string BuildReplicateHeader() {
@@ -29,6 +53,7 @@ std::string BuildReplicateHeader() {
   h += ",power,false_edge_rate,hamming,class_recovered,marks_compared,marks_agree,mark_agreement,"
        "tests,not_estimable,largest_given,"
        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds";
+  h += AttributionHeader();
   return h;
 }
 
@@ -93,8 +118,8 @@ const std::string& ReplicateHeader() {
 
 const std::string& EdgeHeader() {
   static const std::string header =
-      "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark,"
-      "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision";
+      "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark," +
+      EdgeDecisionColumns() + "," + EdgeAttributionColumns();
   return header;
 }
 
@@ -113,7 +138,9 @@ const std::string& SummaryHeader() {
       "tests,tests_low,tests_high,largest_given,largest_given_low,largest_given_high,"
       "solid,solid_found,dashed,dashed_found,reported,false_edges," +
       SummaryScoreColumns() +
-      "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high";
+      "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,"
+      "not_estimable" +
+      AttributionHeader();
   return header;
 }
 
@@ -135,13 +162,15 @@ std::string FormatReplicateRow(const ReplicateRow& r) {
     << r.largest_given << "," << Num(r.timing_simulate_seconds) << ","
     << Num(r.timing_test_seconds) << "," << Num(r.timing_learn_seconds) << ","
     << Num(r.timing_score_seconds);
+  metrics::ErrorAttribution a = r.attribution;
+  for (int* v : AttributionFields(a)) o << "," << *v;
   return o.str();
 }
 
 std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   const std::vector<std::string> f = SplitCommas(line);
   constexpr size_t kCounts = 8 * (1 + metrics::kEdgeGroups);
-  if (f.size() != 14 + kCounts + 14) return std::nullopt;
+  if (f.size() != 14 + kCounts + 14 + kAttributionColumns) return std::nullopt;
   ReplicateRow r;
   double target = 0;
   bool ok = ReadInt(f[0], r.cell) && ReadInt(f[1], r.replicate) && ReadNumber(f[3], r.length) &&
@@ -173,6 +202,8 @@ std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
        ReadNumber(f[i + 4], r.timing_test_seconds) && ReadNumber(f[i + 5], r.timing_learn_seconds) &&
        ReadNumber(f[i + 6], r.timing_score_seconds);
   r.score.class_recovered = recovered != 0;
+  i += 7;
+  for (int* v : AttributionFields(r.attribution)) ok = ok && ReadInt(f[i++], *v);
   if (!ok) return std::nullopt;
   return r;
 }
@@ -209,6 +240,9 @@ std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
     o << "," << g.totals.reported << "," << g.totals.false_edges;
   }
   interval(s.seconds);
+  o << "," << s.not_estimable;
+  metrics::ErrorAttribution a = s.attribution;
+  for (int* v : AttributionFields(a)) o << "," << *v;
   return o.str();
 }
 
@@ -219,6 +253,8 @@ metrics::ReplicateRecord RecordOf(const ReplicateRow& row) {
   r.tests = row.tests;
   r.largest_given = row.largest_given;
   r.seconds = row.timing_learn_seconds;
+  r.not_estimable = row.not_estimable;
+  r.attribution = row.attribution;
   return r;
 }
 

@@ -21,6 +21,7 @@
 
 #include "app/study/study_grid.h"
 #include "metrics/cell_summary.h"
+#include "metrics/error_attribution.h"
 #include "metrics/replicate_score.h"
 
 namespace locind::app {
@@ -48,6 +49,9 @@ struct ReplicateRow {
   double timing_test_seconds = 0;
   double timing_learn_seconds = 0;
   double timing_score_seconds = 0;
+  // --- Why edges were lost (metrics/error_attribution.h): counts only; the
+  // columns come after the timing columns ---
+  metrics::ErrorAttribution attribution;
 };
 
 // Everything one unit (cell x replicate) produced, in learner order.

@@ -9,6 +9,7 @@
 #include <variant>
 
 #include "app/io/event_csv.h"
+#include "app/results/decision_rows.h"
 #include "app/study/study_cost.h"
 #include "app/study/test_choice.h"
 #include "learners/independence/drift_test.h"
@@ -16,6 +17,7 @@
 #include "learners/independence/hawkes_lr_test.h"
 #include "learners/methods/learner_registry.h"
 #include "learners/independence/oracle_test.h"
+#include "metrics/error_attribution.h"
 #include "metrics/pvalue_calibration.h"
 #include "metrics/replicate_score.h"
 #include "sim/diffusion_simulator.h"
@@ -167,18 +169,12 @@ std::string NameList(const std::vector<int>& nodes, const std::vector<std::strin
   return out;
 }
 
-bool Contains(const std::vector<int>& list, int v) {
-  return std::find(list.begin(), list.end(), v) != list.end();
-}
-
-// The last test that decided the edge: target = head, source = tail (either
-// direction for a bidirected edge). nullptr when no such test was made.
-const learners::TestRecord* DecidingTest(const learners::LearnResult& r, const graph::Edge& e) {
-  for (auto it = r.log.rbegin(); it != r.log.rend(); ++it) {
-    if (it->target == e.to && Contains(it->sources, e.from)) return &*it;
-    if (e.kind == graph::EdgeKind::kBidirected && it->target == e.from && Contains(it->sources, e.to)) {
-      return &*it;
-    }
+// The attributed error of an audited edge, or nullptr when it is neither a
+// missed solid edge nor a false edge.
+const metrics::AttributedEdge* AttributedOf(const metrics::ErrorAttribution& a,
+                                            const graph::Edge& e) {
+  for (const metrics::AttributedEdge& x : a.edges) {
+    if (x.edge == e) return &x;
   }
   return nullptr;
 }
@@ -191,8 +187,12 @@ std::string LearnerMark(const learners::LearnResult& r, const graph::Edge& e) {
   return "";
 }
 
+// One row per audited edge: the learner's decision record of the edge (its
+// rule and the witness tests that caused it) and, for a missed solid or
+// false edge, its attributed cause.
 void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_class,
-                  const learners::LearnResult& r, std::vector<std::string>& lines) {
+                  const learners::LearnResult& r, const metrics::ErrorAttribution& attribution,
+                  std::vector<std::string>& lines) {
   const std::vector<std::string>& names = truth_class.projected.names();
   for (const metrics::EdgeAudit& a : metrics::AuditEdges(truth_class, r.graph)) {
     std::ostringstream o;
@@ -200,15 +200,9 @@ void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_clas
       << graph::EdgeText(truth_class.projected, a.edge) << ","
       << metrics::EdgeGroupName(metrics::GroupOf(a.edge)) << ","
       << metrics::TruthStatusName(a.truth) << "," << (a.reported ? "reported" : "not reported")
-      << "," << (a.reported ? LearnerMark(r, a.edge) : "") << ",";
-    if (const learners::TestRecord* t = DecidingTest(r, a.edge)) {
-      o << names[t->target] << "," << NameList(t->sources, names) << "," << NameList(t->given, names)
-        << "," << Num(t->statistic) << "," << Num(t->p_value) << ","
-        << (t->status == learners::TestStatus::kOk ? "ok" : "not estimable") << ","
-        << (t->dependent ? "dependent" : "independent");
-    } else {
-      o << ",,,,,,";
-    }
+      << "," << (a.reported ? LearnerMark(r, a.edge) : "") << ","
+      << EdgeDecisionFields(metrics::FindDecision(r, a.edge), names) << ","
+      << EdgeAttributionFields(AttributedOf(attribution, a.edge), names);
     lines.push_back(o.str());
   }
 }
@@ -272,7 +266,10 @@ void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& tru
   row.score = result->has_marks
                   ? metrics::ScoreGraph(truth_class, result->graph, learners::DashedEdges(*result))
                   : metrics::ScoreGraph(truth_class, result->graph);
-  AddEdgeLines(row, truth_class, *result, out.edge_lines);
+  const metrics::ErrorAttribution attribution = metrics::AttributeErrors(truth_class, *result);
+  row.attribution = attribution;
+  row.attribution.edges.clear();  // counts only travel with the row
+  AddEdgeLines(row, truth_class, *result, attribution, out.edge_lines);
   AddNullTestLines(row, truth_class, *result, out.null_test_lines);
   row.timing_score_seconds = Since(scoring);
 }

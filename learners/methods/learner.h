@@ -76,7 +76,8 @@ struct TestRecord {
 //   separation" (separated in the method's current graph), "D2", "D3",
 //   "F6(i)", "F6(ii)", "B2" (the condition of learners/methods/maximal_criterion.h or
 //   docs/theory.md F6 that failed), "one direction removed" (screen's
-//   bidirected edges), "zero coefficient" (penalized-fit); for kept edges
+//   bidirected edges), "zero coefficient" (penalized-fit), "never considered"
+//   (an edge kind outside the method: pairwise, penalized-fit and <->); for kept edges
 //   "inseparable", "conditions hold", "not estimable" (undecided),
 //   "both directions kept", "nonzero coefficient".
 // witnesses: the answers that caused the decision, the deciding separation

@@ -1,5 +1,7 @@
 #include "learners/methods/maximal_criterion.h"
 
+#include <bit>
+
 namespace locind::learners {
 namespace {
 
@@ -30,7 +32,17 @@ bool InseparableBothWays(SeparationAnswers& answers, int a, int b) {
   return Inseparable(answers, a, b) && Inseparable(answers, b, a);
 }
 
-bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
+namespace {
+
+int Lowest(Mask m) { return std::countr_zero(m); }
+
+void Record(Violation* why, const char* rule, int ps, int pt, Mask pg, int cs, int ct, Mask cg) {
+  if (why != nullptr) *why = Violation{rule, ps, pt, pg, cs, ct, cg};
+}
+
+}  // namespace
+
+bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b, Violation* why) {
   const int n = answers.size();
   const Mask all = graph::AllNodes(n);
   // (D2): conn(a, d | C) implies conn(b, d | C) for C without a and b. Only
@@ -43,7 +55,12 @@ bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
   const bool d2 = ForEachSubset(pool, [&](Mask c) {
     const Mask premise = answers.Possible(a, c) & (c | Bit(a) | Bit(b));
     const Mask from_b = answers.Connected(b, c, premise);
-    return answers.Connected(a, c, premise & ~from_b) == 0;
+    // An unknown answer is no premise (see SeparationAnswers).
+    Mask broken = answers.Connected(a, c, premise & ~from_b);
+    broken &= ~answers.Unknown(a, c);
+    if (broken == 0) return true;
+    Record(why, "D2", a, Lowest(broken), c, b, Lowest(broken), c);
+    return false;
   });
   if (!d2) return false;
   // (D3): with b in C and a outside, conn(g, d | C + a) implies conn(g, d | C).
@@ -65,7 +82,12 @@ bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
       if (premise == 0 || answers.Connected(g, c, Bit(a)) == 0) continue;
       premise = answers.Connected(a, c, premise);
       const Mask open = answers.Connected(g, c, premise);
-      if (answers.Connected(g, c | Bit(a), premise & ~open) != 0) return false;
+      Mask broken = answers.Connected(g, c | Bit(a), premise & ~open);
+      broken &= ~answers.Unknown(g, c | Bit(a));
+      if (broken != 0) {
+        Record(why, "D3", g, Lowest(broken), c | Bit(a), g, Lowest(broken), c);
+        return false;
+      }
     }
     return true;
   });
@@ -74,14 +96,18 @@ bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
 namespace {
 
 // (B2) in one direction: with a in C, conn(g, a | C) implies conn(g, b | C).
-bool SiblingConditionOneWay(SeparationAnswers& answers, int a, int b) {
+bool SiblingConditionOneWay(SeparationAnswers& answers, int a, int b, Violation* why) {
   const int n = answers.size();
   return ForEachSubset(graph::AllNodes(n) & ~Bit(a), [&](Mask rest) {
     const Mask c = rest | Bit(a);
     for (int g = 0; g < n; ++g) {
       if (Contains(c, g) || !Contains(answers.Possible(g, c), a)) continue;
       if (answers.Connected(g, c, Bit(b)) != 0) continue;
-      if (answers.Connected(g, c, Bit(a)) != 0) return false;
+      const Mask premise = answers.Connected(g, c, Bit(a));
+      if ((premise & ~answers.Unknown(g, c)) != 0) {
+        Record(why, "B2", g, a, c, g, b, c);
+        return false;
+      }
     }
     return true;
   });
@@ -89,8 +115,8 @@ bool SiblingConditionOneWay(SeparationAnswers& answers, int a, int b) {
 
 }  // namespace
 
-bool BidirectedConditionsHold(SeparationAnswers& answers, int a, int b) {
-  return SiblingConditionOneWay(answers, a, b) && SiblingConditionOneWay(answers, b, a);
+bool BidirectedConditionsHold(SeparationAnswers& answers, int a, int b, Violation* why) {
+  return SiblingConditionOneWay(answers, a, b, why) && SiblingConditionOneWay(answers, b, a, why);
 }
 
 }  // namespace locind::learners

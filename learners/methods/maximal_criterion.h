@@ -49,12 +49,21 @@
 
 namespace locind::learners {
 
+// Answers that could not be computed (not estimable) are neither
+// separations nor connections: Connected() includes them (so they never
+// serve as the separation that breaks a condition) and Unknown() names them,
+// so the criterion never uses them as the connection a condition starts
+// from either. An edge whose conditions hang on such an answer is kept.
 class SeparationAnswers {
  public:
   virtual ~SeparationAnswers() = default;
   virtual int size() const = 0;
-  // The members d of `targets` with conn(c, d | given). REQUIRES: c not in given.
+  // The members d of `targets` with conn(c, d | given), or whose answer is
+  // unknown. REQUIRES: c not in given.
   virtual graph::Mask Connected(int c, graph::Mask given, graph::Mask targets) = 0;
+  // Among the answers already asked, the d whose conn(c, d | given) is
+  // unknown (not estimable); 0 when every answer is known.
+  virtual graph::Mask Unknown(int, graph::Mask) { return 0; }
   // A superset of the d with conn(c, d | given), known without asking
   // anything (every node when nothing is known). REQUIRES: c not in given.
   virtual graph::Mask Possible(int c, graph::Mask given) = 0;
@@ -66,13 +75,27 @@ class SeparationAnswers {
   virtual graph::Mask KnownAncestors(graph::Mask given) = 0;
 };
 
+// The answers that broke a condition: the premise conn(premise_source,
+// premise_target | premise_given) held and the conclusion
+// conn(conclusion_source, conclusion_target | conclusion_given) did not.
+struct Violation {
+  const char* rule = "";  // "D2", "D3" or "B2"
+  int premise_source = 0;
+  int premise_target = 0;
+  graph::Mask premise_given = 0;
+  int conclusion_source = 0;
+  int conclusion_target = 0;
+  graph::Mask conclusion_given = 0;
+};
+
 // (L), (D1) for a loop or a directed edge; (B1) is InseparableBothWays.
 bool Inseparable(SeparationAnswers& answers, int a, int b);
 bool InseparableBothWays(SeparationAnswers& answers, int a, int b);
 
-// (D2) and (D3) for a -> b, a != b (D1 is not rechecked).
-bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b);
-// (B2) for a <-> b (B1 is not rechecked).
-bool BidirectedConditionsHold(SeparationAnswers& answers, int a, int b);
+// (D2) and (D3) for a -> b, a != b (D1 is not rechecked). When false and
+// `why` is set, *why names the condition and the two answers that broke it.
+bool DirectedConditionsHold(SeparationAnswers& answers, int a, int b, Violation* why = nullptr);
+// (B2) for a <-> b (B1 is not rechecked); `why` as above.
+bool BidirectedConditionsHold(SeparationAnswers& answers, int a, int b, Violation* why = nullptr);
 
 }  // namespace locind::learners

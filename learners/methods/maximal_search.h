@@ -27,6 +27,10 @@
 //        accepted (a subgraph of N), or on a pair found inseparable, is
 //        connected; only the rest goes to the test.
 //  (iv)  marks: dashed iff dropping the edge keeps every separation (F4).
+// Every candidate edge gets one decision record (learners/methods/learner.h):
+// the phase that decided it, the rule (a separation, D2, D3, B2, F6(i),
+// F6(ii), or the criterion holding) and the witness answers. Tests that
+// could not be computed never remove an edge nor serve as a rule's premise.
 // Under the oracle the result is exactly the maximal graph and equivalence
 // graph (checked in tests/learners/methods/maximal_search_test.cc). Refused beyond
 // graph::kMaxExactNodes processes: phase (iii) enumerates conditioning sets.

@@ -15,15 +15,35 @@ Result<LearnResult> PairwiseLearner::Learn(const LearnInput& input) {
   TestRunner runner(*input.test, input.level);
   const graph::Mask all = graph::AllNodes(n);
   graph::BitGraph g(n);
+  std::vector<EdgeDecision> decisions;
   for (int b = 0; b < n; ++b) {
     for (int a = 0; a < n; ++a) {
-      if (runner.Dependent(a, b, all & ~graph::Bit(a))) g.Add({a, b, graph::EdgeKind::kDirected});
+      const graph::Edge e{a, b, graph::EdgeKind::kDirected};
+      const graph::Mask given = all & ~graph::Bit(a);
+      // Not estimable is no separation: the edge stays (undecided).
+      if (runner.Dependent(a, b, given)) {
+        g.Add(e);
+        decisions.push_back(MakeDecision(e, true, "test", "dependent"));
+      } else {
+        decisions.push_back(MakeDecision(e, false, "test", "separated",
+                                         {runner.Witness(a, b, given, false)}));
+      }
+    }
+  }
+  // Bidirected edges are outside the method: recorded so that every edge of
+  // the truth has a record saying why it is missing.
+  for (int a = 0; a < n; ++a) {
+    for (int b = a + 1; b < n; ++b) {
+      decisions.push_back(
+          MakeDecision({a, b, graph::EdgeKind::kBidirected}, false, "test", "never considered"));
     }
   }
   LearnResult result;
   result.method = "pairwise";
   result.graph = graph::ToDmg(g, input.test->names());
   runner.Fill(result);
+  result.decisions = std::move(decisions);
+  FinishDecisions(result);
   result.seconds = SecondsSince(start);
   return result;
 }

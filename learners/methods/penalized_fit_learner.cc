@@ -187,9 +187,25 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
   for (size_t b = 0; b < parents.size(); ++b) {
     for (int j : parents[b]) result.graph.AddDirected(j, static_cast<int>(b));
   }
+  // No tests: every directed pair is decided by its fitted coefficients.
+  const int n = static_cast<int>(parents.size());
+  for (int a = 0; a < n; ++a) {
+    for (int b = 0; b < n; ++b) {
+      const bool kept = result.graph.HasDirected(a, b);
+      result.decisions.push_back(MakeDecision({a, b, graph::EdgeKind::kDirected}, kept, "fit",
+                                              kept ? "nonzero coefficient" : "zero coefficient"));
+    }
+  }
+  for (int a = 0; a < n; ++a) {
+    for (int b = a + 1; b < n; ++b) {
+      result.decisions.push_back(
+          MakeDecision({a, b, graph::EdgeKind::kBidirected}, false, "fit", "never considered"));
+    }
+  }
   std::ostringstream note;
   note << "penalty scale " << scale_;
   result.note = note.str();
+  FinishDecisions(result);
   result.seconds = SecondsSince(start);
   return result;
 }

@@ -2,6 +2,7 @@
 // equivalence graph, the output files, data runs and bad input.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -53,13 +54,16 @@ TEST_CASE("--help prints the usage") {
   CHECK(o.out.find("--oracle FILE") != std::string::npos);
 }
 
-TEST_CASE("--oracle --json prints exactly the class of `graph class --json`") {
+TEST_CASE("--oracle --json prints exactly the class of `graph class --json`, plus decisions") {
   std::ostringstream out, err;
   REQUIRE(RunGraphCommand({"class", kExample, "--json"}, out, err) == kExitOk);
+  const std::string graph = out.str().substr(0, out.str().rfind('}'));
   for (const char* method : {"maximal-search", "exhaustive"}) {
     const Outcome o = Learn({"--oracle", kExample, "--method", method, "--json"});
     CHECK(o.code == kExitOk);
-    CHECK(o.out == out.str());
+    CHECK(o.out.rfind(graph + ", \"decisions\": [{\"edge\": ", 0) == 0);
+    CHECK(o.out.substr(o.out.size() - 3) == "]}\n");
+    CHECK(o.err.empty());  // the oracle computes every test
   }
 }
 
@@ -100,9 +104,19 @@ TEST_CASE("--out writes the graph as JSON, DOT and SVG and the test log") {
   CHECK(ReadAll(dir / "graph.dot").find("digraph") != std::string::npos);
   CHECK(ReadAll(dir / "graph.svg").find("<svg") != std::string::npos);
   const std::string log = ReadAll(dir / "tests.csv");
-  CHECK(log.rfind("target,sources,given,statistic,df,p_value,status,decision\n", 0) == 0);
+  CHECK(log.rfind("target,sources,given,statistic,df,p_value,status,decision,reason\n", 0) == 0);
   // The first test: is a independent of its own past given nothing? No.
-  CHECK(log.find("\na,a,,1,0,0,ok,dependent\n") != std::string::npos);
+  CHECK(log.find("\na,a,,1,0,0,ok,dependent,\n") != std::string::npos);
+  // decisions.csv: one row per candidate edge of screen (9 directed, 3
+  // bidirected over a, b, c). In the projection (a -> b, b -> b, c -> b,
+  // a <-> c) b -> b is a loop of the truth, kept; b is separated from a given
+  // {a, c} (the only walk, b <- c <-> a, is blocked at c), so b -> a is
+  // removed with a separation of target a from source b as its witness.
+  const std::string decisions = ReadAll(dir / "decisions.csv");
+  CHECK(decisions.rfind("edge,mark,decision,decision_phase,decision_rule,witness_target,", 0) == 0);
+  CHECK(std::count(decisions.begin(), decisions.end(), '\n') == 1 + 9 + 3);
+  CHECK(decisions.find("\nb -> b,,kept,screen,inseparable,") != std::string::npos);
+  CHECK(decisions.find("\nb -> a,,removed,screen,separated,a,b,") != std::string::npos);
   std::filesystem::remove_all(dir);
 }
 
@@ -125,6 +139,35 @@ TEST_CASE("a data run: path file with the drift test") {
   CHECK(o.code == kExitOk);
   CHECK(o.out.rfind("nodes: [x1, x2]\n", 0) == 0);
   CHECK(o.out.find("test drift-exact-lr, tests 4") != std::string::npos);
+  std::filesystem::remove(file);
+}
+
+TEST_CASE("tests that cannot be computed: counted with reasons on stderr, no p-value in tests.csv") {
+  // a has 4 events, fewer than the Hawkes test needs for a target (10,
+  // min_target_events in learners/independence/hawkes_lr_test.h); b has 40.
+  const auto file = std::filesystem::temp_directory_path() / "locind_learn_few.csv";
+  {
+    std::ofstream out(file);
+    out << "time,process\n";
+    for (int i = 0; i < 40; ++i) {
+      out << 0.5 + i << ",b\n";
+      if (i % 13 == 0) out << 0.7 + i << ",a\n";
+    }
+  }
+  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_few";
+  std::filesystem::remove_all(dir);
+  const Outcome o = Learn({file.string(), "--method", "pairwise", "--out", dir.string()});
+  CHECK(o.code == kExitOk);
+  // pairwise asks 4 tests; the two with target a cannot be computed.
+  CHECK(o.err.rfind("locind learn: warning: 2 of 4 tests not estimable", 0) == 0);
+  CHECK(o.err.find("too few events") != std::string::npos);
+  const std::string log = ReadAll(dir / "tests.csv");
+  CHECK(log.find(",,,,not estimable,,too few events") != std::string::npos);
+  // Both edges into a are kept as undecided, with that test as witness.
+  const std::string decisions = ReadAll(dir / "decisions.csv");
+  CHECK(decisions.find("\nb -> a,,undecided,test,not estimable,a,b,a,,,not estimable: too few") !=
+        std::string::npos);
+  std::filesystem::remove_all(dir);
   std::filesystem::remove(file);
 }
 

@@ -148,6 +148,13 @@ TEST_CASE("not estimable results are printed with their reason") {
   CHECK(r.code == kExitOk);
   CHECK(r.out.find("status: not estimable: too few events: 'b' has 3, at least 10 needed\n") !=
         std::string::npos);
+  // No number stands in for a p-value that could not be computed.
+  CHECK(r.out.find("p_value: \n") != std::string::npos);
+  CHECK(r.err ==
+        "locind test: warning: 1 of 1 tests not estimable (neither separation nor dependence): "
+        "too few events: 'b' has 3, at least 10 needed (1)\n");
+  const Outcome json = Run({path, "--target", "b", "--source", "a", "--given", "b", "--json"});
+  CHECK(json.out.find("\"p_value\": null") != std::string::npos);
 }
 
 TEST_CASE("bad input: one line, exit code 2") {

@@ -35,9 +35,11 @@ struct Folder {
                              "0.6,0.4,0.8,5,3,0,0,0,4,0,"
                              "0.4,0.2,0.6,5,2,0,0,0,2,0,"
                              ",,,0,0,,,,0,0,"
-                             "0.01,0.005,0.02\n");
+                             // seconds, then not_estimable and the ten attribution counts
+                             "0.01,0.005,0.02,0,0,0,0,0,0,0,0,0,0,0\n");
     Write("edges.csv", EdgeHeader() + "\n" +
-                           "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,b,a,b,3.2,0.01,ok,dependent\n");
+                           "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,kept,test,dependent,b,a,b,3.2,"
+                           "0.01,ok,dependent,test,,,\n");
     Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes\n");
   }
   ~Folder() { fs::remove_all(dir); }

@@ -27,13 +27,18 @@ TEST_CASE("replicates.csv header") {
         "learner,method,test,status,message,observed_points" + groups +
         ",power,false_edge_rate,hamming,class_recovered,marks_compared,marks_agree,mark_agreement,"
         "tests,not_estimable,largest_given,"
-        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds");
+        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds,"
+        "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
+        "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
+        "false_reach");
 }
 
 TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
   CHECK(EdgeHeader() ==
         "cell,replicate,truth,learner,edge,edge_group,truth_status,learner_action,learner_mark,"
-        "test_target,test_sources,test_given,test_statistic,test_p_value,test_status,test_decision");
+        "decision,decision_phase,decision_rule,witness_target,witness_sources,witness_given,"
+        "witness_statistic,witness_p_value,witness_status,witness_decision,witness_origin,"
+        "more_witnesses,error_cause,error_test");
   CHECK(NullTestHeader() ==
         "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
         "test_statistic,test_df,test_p_value,all_parents_given");
@@ -53,7 +58,10 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "truths,power_ceiling,reports_directed,reports_loop,reports_bidirected,reports_marks,"
         "mark_agreement,mark_agreement_low,mark_agreement_high,marks_compared,marks_agree," +
         groups +
-        "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high");
+        "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,not_estimable,"
+        "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
+        "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
+        "false_reach");
 }
 
 TEST_CASE("every documented column is in results/README.md") {
@@ -99,11 +107,18 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   r.score.marks_compared = 5;
   r.score.marks_agree = 4;
   r.score.mark_agreement = 0.8;
+  // The attribution columns travel too (journal, --part merge, MPI).
+  r.attribution.tests.false_separation = 6;
+  r.attribution.missed_propagation = 2;
+  r.attribution.false_not_estimable = 1;
   const std::string line = FormatReplicateRow(r);
   CHECK(line.find(",0.3333333333333333,,4,1,5,4,0.8,40,") != std::string::npos);  // NaN is an empty field
+  CHECK(line.substr(line.size() - 20) == ",0,6,0,0,2,0,0,0,1,0");
   const std::optional<ReplicateRow> back = ParseReplicateRow(line);
   REQUIRE(back.has_value());
   CHECK(FormatReplicateRow(*back) == line);
+  CHECK(back->attribution.missed_propagation == 2);
+  CHECK(back->attribution.false_not_estimable == 1);
   CHECK(back->score.by_group[1].solid == 3);
   CHECK(back->score.marks_agree == 4);
   CHECK(back->score.mark_agreement == 0.8);

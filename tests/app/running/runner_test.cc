@@ -4,10 +4,13 @@
 // refused; a failed replicate is a row, not an abort.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <chrono>
+#include <iterator>
 #include <csignal>
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <sstream>
 #include <thread>
 
@@ -54,6 +57,15 @@ TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2
   }
 }
 
+// Lines that end with a newline. A kill can cut a long unit line short (a
+// write to a regular file stops between pages on SIGKILL); such a torn tail
+// is no committed unit, and std::getline would count it.
+int CountCompleteLines(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  const std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  return static_cast<int>(std::count(text.begin(), text.end(), '\n'));
+}
+
 // Runs `args` in a child process and kills it with SIGKILL once `units`
 // units are committed to the journal of `dir`, then appends a torn line as a
 // kill in the middle of a write would leave. Returns the units committed.
@@ -75,7 +87,7 @@ int RunAndKill(const std::vector<std::string>& args, const fs::path& dir, int un
   waitpid(child, &status, 0);
   REQUIRE(WIFSIGNALED(status));  // it was killed, not finished
   CHECK_FALSE(fs::exists(dir / "replicates.csv"));
-  const int committed = CountLines(journal) - 1;
+  const int committed = CountCompleteLines(journal) - 1;
   std::ofstream(journal, std::ios::app) << "unit\t1\t9\t3\t0\t0\t1,9,t2,1600";
   return committed;
 }
@@ -150,6 +162,78 @@ TEST_CASE("a replicate whose simulation fails is a row with status and message")
   CHECK(rows.find(",ok,") == std::string::npos);  // 40 events never cover the window
   const std::string summary = ReadAll(s.dir / "out" / "summary.csv");
   CHECK(summary.find(",pairwise/hawkes-lr,4,4,") != std::string::npos);  // 4 replicates, 4 failed
+}
+
+// Reads a CSV file with a header into rows of column -> field (no quoting:
+// the result files never quote).
+std::vector<std::map<std::string, std::string>> ReadRows(const fs::path& file) {
+  std::ifstream in(file);
+  std::vector<std::string> header;
+  std::vector<std::map<std::string, std::string>> rows;
+  for (std::string line; std::getline(in, line);) {
+    std::vector<std::string> f;
+    std::stringstream s(line);
+    for (std::string x; std::getline(s, x, ',');) f.push_back(x);
+    if (!line.empty() && line.back() == ',') f.emplace_back();
+    if (header.empty()) {
+      header = f;
+      continue;
+    }
+    REQUIRE(f.size() == header.size());
+    std::map<std::string, std::string> row;
+    for (size_t i = 0; i < f.size(); ++i) row[header[i]] = f[i];
+    rows.push_back(row);
+  }
+  return rows;
+}
+
+int Int(const std::map<std::string, std::string>& row, const std::string& column) {
+  return std::stoi(row.at(column));
+}
+
+// Why each edge was lost, end to end: the tiny study with maximal-search on
+// the Hawkes test as well (short windows, so tests err and some cannot be
+// computed). Per replicate the causes add up to the missed solid edges and
+// the false edges, and the verdicts to the tests; every missed solid edge has
+// a decision record with a rule; no removed edge names a witness that says
+// dependent; a not-estimable witness has no p-value.
+TEST_CASE("edges.csv decision records and replicates.csv attribution add up") {
+  Scratch s("locind_runner_test_attribution");
+  std::string text = kTinyStudy;
+  text += "  - {method: maximal-search, test: hawkes-lr}\n";
+  const std::string study = s.Write("tiny.yaml", text);
+  REQUIRE(Run({study, "--threads", "2", "--out", s.Path("out")}) == kExitOk);
+  int missed = 0;
+  int errors_judged = 0;
+  for (const auto& r : ReadRows(s.dir / "out" / "replicates.csv")) {
+    if (r.at("status") != "ok") continue;
+    CHECK(Int(r, "missed_own_test") + Int(r, "missed_propagation") + Int(r, "missed_reach") ==
+          Int(r, "missed_solid"));
+    CHECK(Int(r, "false_own_test") + Int(r, "false_propagation") + Int(r, "false_not_estimable") +
+              Int(r, "false_reach") ==
+          Int(r, "false_edges"));
+    CHECK(Int(r, "test_correct") + Int(r, "test_false_separation") +
+              Int(r, "test_false_dependence") + Int(r, "not_estimable") ==
+          Int(r, "tests"));
+    if (r.at("test") == "oracle") CHECK(Int(r, "test_correct") == Int(r, "tests"));
+    missed += Int(r, "missed_solid");
+    errors_judged += Int(r, "test_false_separation") + Int(r, "test_false_dependence");
+  }
+  CHECK(missed > 0);  // not vacuous: short windows lose edges
+  CHECK(errors_judged > 0);
+  for (const auto& e : ReadRows(s.dir / "out" / "edges.csv")) {
+    if (e.at("truth_status") == "solid" && e.at("learner_action") == "not reported") {
+      CHECK(e.at("decision") == "removed");
+      CHECK_FALSE(e.at("decision_rule").empty());
+      CHECK_FALSE(e.at("error_cause").empty());
+    }
+    if (e.at("decision") == "removed" && !e.at("witness_target").empty()) {
+      CHECK(e.at("witness_decision") == "separated");
+    }
+    if (e.at("witness_status").rfind("not estimable", 0) == 0) {
+      CHECK(e.at("witness_p_value").empty());
+    }
+  }
 }
 
 TEST_CASE("without the MPI build option, MPI use is refused with the way out") {
