@@ -60,17 +60,17 @@ TEST_CASE("two levels in one study share data and p-values and differ only in de
   std::map<std::string, std::string> p_values;  // "cell%2 replicate edge" -> p-value
   int same = 0, dependent_low = 0, dependent_high = 0;
   for (const Row& r : ReadRows(s.dir / "out" / "edges.csv")) {
-    if (r.at("learner") != "pairwise/hawkes-lr" || r.at("test_status") != "ok") continue;
+    if (r.at("learner") != "pairwise/hawkes-lr" || r.at("witness_status") != "ok") continue;
     const int cell = std::stoi(r.at("cell"));
     const double level = cell < 2 ? 0.01 : 0.3;
-    const double p = std::stod(r.at("test_p_value"));
+    const double p = std::stod(r.at("witness_p_value"));
     // The decision rule of learners/methods/test_runner.cc: dependent when p <= level.
-    CHECK((r.at("test_decision") == "dependent") == (p <= level));
-    (cell < 2 ? dependent_low : dependent_high) += r.at("test_decision") == "dependent";
+    CHECK((r.at("witness_decision") == "dependent") == (p <= level));
+    (cell < 2 ? dependent_low : dependent_high) += r.at("witness_decision") == "dependent";
     const std::string key = std::to_string(cell % 2) + " " + r.at("replicate") + " " + r.at("edge");
-    auto [it, fresh] = p_values.emplace(key, r.at("test_p_value"));
+    auto [it, fresh] = p_values.emplace(key, r.at("witness_p_value"));
     if (!fresh) {
-      CHECK(it->second == r.at("test_p_value"));
+      CHECK(it->second == r.at("witness_p_value"));
       ++same;
     }
   }
