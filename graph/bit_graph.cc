@@ -64,4 +64,15 @@ Dmg ToDmg(const BitGraph& g, const std::vector<std::string>& names) {
   return out;
 }
 
+BitGraph CompleteGraph(int n) {
+  BitGraph g(n);
+  for (int a = 0; a < n; ++a) {
+    for (int b = 0; b < n; ++b) {
+      g.Add({a, b, EdgeKind::kDirected});
+      if (a < b) g.Add({a, b, EdgeKind::kBidirected});
+    }
+  }
+  return g;
+}
+
 }  // namespace locind::graph

@@ -40,6 +40,11 @@ struct BitGraph {
 // Every edge of g in the order of ListEdges(const Dmg&).
 std::vector<Edge> ListEdges(const BitGraph& g);
 
+// The graph on n nodes with every directed edge (loops included) and every
+// bidirected edge: where a search for a maximal graph starts.
+// REQUIRES: 0 <= n <= kMaxBitGraphNodes.
+BitGraph CompleteGraph(int n);
+
 // Fails (with the node count and the limit in the message) when g has more
 // than 64 nodes.
 Result<BitGraph> ToBitGraph(const Dmg& g);

@@ -40,7 +40,8 @@ std::string FirstWitnessFields(const TestRecord* t, const std::vector<std::strin
 std::string MoreWitnesses(const EdgeDecision& d, const std::vector<std::string>& names) {
   std::string out;
   for (size_t i = 1; i < d.witnesses.size(); ++i) {
-    out += (i > 1 ? " " : "") + WitnessText(d.witnesses[i], names);
+    if (i > 1) out += ' ';  // not (" " : "") + ...: a g++ 12 -Wrestrict false positive
+    out += WitnessText(d.witnesses[i], names);
   }
   return out;
 }

@@ -17,14 +17,6 @@ std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
   return out;
 }
 
-TestResult NotEstimable(std::string reason) {
-  TestResult r;
-  r.status = TestStatus::kNotEstimable;
-  r.p_value = 1;
-  r.reason = std::move(reason);
-  return r;
-}
-
 }  // namespace
 
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count) {

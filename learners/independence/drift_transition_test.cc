@@ -19,14 +19,6 @@ constexpr double kMinusInfinity = -std::numeric_limits<double>::infinity();
 // Spacings within this relative distance share one transition.
 constexpr double kSpacingTolerance = 1e-6;
 
-TestResult NotEstimable(std::string reason) {
-  TestResult r;
-  r.status = TestStatus::kNotEstimable;
-  r.p_value = 1;
-  r.reason = std::move(reason);
-  return r;
-}
-
 // The moments of one spacing restricted to the coordinates of a fit.
 struct Block {
   double step, count;

@@ -204,14 +204,6 @@ TestResult HawkesLrTest::Run(const TestQuery& query) {
 
 namespace {
 
-TestResult NotEstimable(std::string reason) {
-  TestResult r;
-  r.status = TestStatus::kNotEstimable;
-  r.p_value = 1;
-  r.reason = std::move(reason);
-  return r;
-}
-
 // True when the Gram matrix of the event design [1, x(t_i)] is numerically
 // rank deficient (eigenvalue ratio below 1e-12 after scaling to unit
 // diagonal): the event term carries almost all the curvature of the signed

@@ -9,6 +9,7 @@
 
 #include <cstdint>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace locind::learners {
@@ -22,6 +23,16 @@ struct TestResult {
   TestStatus status = TestStatus::kOk;
   std::string reason;  // why not estimable (too few events, singular design, failed fit)
 };
+
+// A not-estimable result with its reason. The p-value stays at its
+// in-memory default of 1 but is never written to a file: callers check
+// `status` first (not estimable is neither separation nor dependence).
+inline TestResult NotEstimable(std::string reason) {
+  TestResult r;
+  r.status = TestStatus::kNotEstimable;
+  r.reason = std::move(reason);
+  return r;
+}
 
 // A query: b locally independent of A given C. A and C are disjoint, sorted
 // and may contain b (b in C is the usual case: its own past).

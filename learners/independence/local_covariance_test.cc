@@ -10,14 +10,6 @@
 namespace locind::learners {
 namespace {
 
-TestResult NotEstimable(std::string reason) {
-  TestResult r;
-  r.status = TestStatus::kNotEstimable;
-  r.p_value = 1;
-  r.reason = std::move(reason);
-  return r;
-}
-
 // Columns of the features of `processes` (K per process) at the grid nodes,
 // after a leading column of ones when `intercept`.
 Eigen::MatrixXd GridColumns(HawkesFeatures& f, const std::vector<int>& processes, bool intercept) {

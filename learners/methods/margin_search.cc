@@ -31,6 +31,7 @@ namespace {
 
 using graph::Bit;
 using graph::BitGraph;
+using graph::CompleteGraph;
 using graph::Contains;
 using graph::Edge;
 using graph::EdgeKind;
@@ -65,17 +66,6 @@ class AnswerTap : public IndependenceTest {
 // The p-value of a result as evidence: NaN when it could not be computed.
 double Evidence(const TestResult& r) {
   return r.status == TestStatus::kNotEstimable ? kNaN : r.p_value;
-}
-
-BitGraph CompleteGraph(int n) {
-  BitGraph g(n);
-  for (int a = 0; a < n; ++a) {
-    for (int b = 0; b < n; ++b) {
-      g.Add({a, b, EdgeKind::kDirected});
-      if (a < b) g.Add({a, b, EdgeKind::kBidirected});
-    }
-  }
-  return g;
 }
 
 // A remembered separation: `target` separated from `source` given `given`,
@@ -481,7 +471,7 @@ void FinalPhase(State& s) {
       removed.push_back(e);
     } else if (d.rule.empty() && ans.set_aside_.given != EdgeAnswers::kNone) {
       const Separation& z = ans.set_aside_;
-      d.rule = "own evidence";
+      d.rule = std::string("own evidence");  // not = "...": a g++ 12 -Wrestrict false positive
       d.witnesses = {Witness(s, z.source, z.target, z.given)};
     }
   }

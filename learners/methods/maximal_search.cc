@@ -14,22 +14,12 @@ namespace locind::learners {
 namespace {
 
 using graph::BitGraph;
+using graph::CompleteGraph;
 using graph::Bit;
 using graph::Contains;
 using graph::Edge;
 using graph::EdgeKind;
 using graph::Mask;
-
-BitGraph CompleteGraph(int n) {
-  BitGraph g(n);
-  for (int a = 0; a < n; ++a) {
-    for (int b = 0; b < n; ++b) {
-      g.Add({a, b, EdgeKind::kDirected});
-      if (a < b) g.Add({a, b, EdgeKind::kBidirected});
-    }
-  }
-  return g;
-}
 
 // A remembered separation: `target` separated from `source` given `given`,
 // with the answer that found it (a test, or implied by the current graph).
