@@ -68,6 +68,18 @@ struct Files {
   ~Files() { std::filesystem::remove_all(dir); }
 };
 
+TEST_CASE("--help names every test with what it assumes") {
+  const Outcome r = Run({"--help"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.err.empty());
+  // Every name the study files and --test accept (app/study/test_choice.h).
+  for (const char* name : {"hawkes-lr (default)", "hawkes-lr-chisq", "hawkes-lr-signed", "event-local-covariance",
+                           "event-local-covariance-end", "drift-exact-lr (default)", "drift-f", "drift-robust-wald"}) {
+    CHECK_MESSAGE(r.out.find(name) != std::string::npos, name);
+  }
+  CHECK(r.out.find("docs/tests.md") != std::string::npos);
+}
+
 TEST_CASE("text output lists the query and the result, one key per line") {
   Files f;
   const Outcome r = Run({f.events, "--target", "b", "--source", "a", "--given", "b"});
