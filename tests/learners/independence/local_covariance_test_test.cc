@@ -6,6 +6,8 @@
 
 #include <doctest/doctest.h>
 
+#include "tests/learners/independence/two_process_draw.h"
+
 #include "base/random_stream.h"
 #include "graph/dmg.h"
 #include "sim/hawkes_model.h"
@@ -14,18 +16,8 @@
 namespace locind::learners {
 namespace {
 
-// A draw of a -> b (a, b self-exciting) on [0, horizon).
 sim::EventData Draw(double weight, double horizon, uint64_t seed) {
-  graph::Dmg g({"a", "b"});
-  g.AddDirected(0, 0);
-  g.AddDirected(1, 1);
-  if (weight > 0) g.AddDirected(0, 1);
-  sim::HawkesModel m = sim::ExponentialHawkes(graph::TruthGraph{g, {}}, 0.5, weight, 2.0, 0.2);
-  sim::HawkesRunOptions o;
-  o.horizon = horizon;
-  o.burn_in = 50;
-  base::RandomStream random(seed);
-  return sim::SimulateHawkes(m, o, random).value();
+  return DrawTwoProcesses(weight, horizon, seed);
 }
 
 std::shared_ptr<HawkesFeatures> Features(sim::EventData d, std::vector<double> rates) {
