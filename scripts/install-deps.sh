@@ -4,7 +4,7 @@
 set -euo pipefail
 
 packages=(
-  cmake g++ make ninja-build pkg-config
+  cmake g++ make ninja-build pkg-config ccache
   libeigen3-dev libboost-random-dev libboost-program-options-dev libboost-math-dev
   libyaml-cpp-dev libbenchmark-dev doctest-dev
   graphviz libgraphviz-dev gnuplot-nox
