@@ -10,6 +10,7 @@
 #include <tuple>
 
 #include "app/io/atomic_file.h"
+#include "app/report/lost_edges_figure.h"
 #include "app/report/report_drawings.h"
 #include "app/report/report_figures.h"
 #include "app/results/results_calibration.h"
@@ -310,6 +311,30 @@ std::string Slug(const std::string& text) {
   return out;
 }
 
+// --- Where edges are lost: stacked bars of the causes per learner ----------
+
+void AddLostFigures(const StudySpec& study, const ReportData& data, const GroupKey& group,
+                    const std::vector<const SummaryLine*>& lines, const std::string& suffix,
+                    ReportSection& section) {
+  for (const LearnerSpec& l : study.learners) {
+    const bool any = std::any_of(lines.begin(), lines.end(), [&l](const SummaryLine* x) {
+      return x->learner == l.label && x->has_attribution;
+    });
+    if (!any) continue;
+    const StackedBarPlot plot =
+        LostEdgesPlot(l.label, "Where edges are lost: " + l.label + ", " + GroupText(group), lines, data.edges);
+    section.figures.push_back({"lost-" + Slug(l.label) + suffix,
+                               "Where edges are lost: " + l.label + " (" + GroupText(group) + ")",
+                               "Per length, left: the solid edges of N the learner missed; right: its false "
+                               "edges; both per replicate that ran, each split by its one cause as in "
+                               "summary.csv. Propagated: removed (or kept) because of a wrong answer about "
+                               "another pair, split by the rule that removed the edge (edges.csv "
+                               "decision_rule). Method's reach: no test was wrong (edges the method never "
+                               "reports, or its own rule).",
+                               Renderer::kGnuplot, StackedBarScript(plot), ""});
+  }
+}
+
 // --- Calibration: QQ plots split by all_parents_given, rejection table ------
 
 std::string TagText(bool all_parents_given) {
@@ -493,10 +518,16 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   ReportSection rates{"rates", "Power and false edges", "Scored against the maximal graph N of each truth's "
                       "class: a learner can at best report N." + TruthsNote(data), {}};
   ReportSection cost{"cost", "Tests made and time", "", {}};
+  ReportSection lost{"lost", "Where edges are lost",
+                     "Each missed solid edge and each false edge has exactly one cause, judged against the "
+                     "truth (results/README.md, \"Why edges were lost\"): the edge's own test was wrong, "
+                     "a wrong answer about another pair propagated through a rule of the method, a test "
+                     "could not be computed, or no test was wrong (the method's reach).", {}};
   const auto groups = Groups(data);
   for (size_t g = 0; g < groups.size(); ++g) {
     const std::string suffix = groups.size() > 1 ? "-g" + std::to_string(g + 1) : "";
     AddRateFigures(study, data, groups[g].first, groups[g].second, suffix, rates);
+    AddLostFigures(study, data, groups[g].first, groups[g].second, suffix, lost);
     AddCostFigures(study, groups[g].first, groups[g].second, suffix, cost);
   }
   ReportSection drawings{"graphs", "Graphs", "", {}};
@@ -504,6 +535,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   ReportSection learned{"learned", "Learned graphs", "", {}};
   AddLearnedDrawings(study, cells, truths, data, learned);
   page.sections = {rates, cost, CalibrationSection(study, cells, data, page.warnings), drawings, learned};
+  if (!lost.figures.empty()) page.sections.insert(page.sections.begin() + 1, lost);
   return page;
 }
 

@@ -56,12 +56,35 @@ struct QqPlot {
   double level = 0.05;
 };
 
+// Stacked bars: each bar a sum of parts, one part per category (colour and
+// legend entry), drawn bottom up in category order; zero parts are skipped.
+struct StackCategory {
+  std::string label;
+  std::string colour;  // "#rrggbb"
+};
+
+struct StackedBar {
+  double x = 0;               // centre; bars are 0.36 wide
+  std::string tic;            // text under the bar
+  std::vector<double> parts;  // one per category (missing ones count as 0)
+};
+
+struct StackedBarPlot {
+  std::string title;
+  std::string y_label;
+  std::vector<StackCategory> categories;
+  std::vector<StackedBar> bars;
+  // Text centred under a group of bars (e.g. the length), below the tics.
+  std::vector<std::pair<double, std::string>> group_labels;
+};
+
 // The colour of learner style `i` ("#rrggbb").
 std::string StyleColour(int style);
 
 // gnuplot scripts writing one SVG document to standard output.
 std::string LinePlotScript(const LinePlot& plot);
 std::string QqPlotScript(const QqPlot& plot);
+std::string StackedBarScript(const StackedBarPlot& plot);
 
 // Runs gnuplot on `script`; the SVG text, or an error naming what failed
 // (gnuplot missing, or its own message).

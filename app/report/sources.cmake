@@ -6,4 +6,5 @@ locind_layer(locind_report
     app/report/report_drawings.cc
     app/report/report_figures.cc
     app/report/report_html.cc
+    app/report/lost_edges_figure.cc
 )

@@ -133,6 +133,21 @@ void ReadGroups(const Table& t, size_t i, SummaryLine& s) {
   }
 }
 
+// The cause counts of one summary line, when the file has them.
+void ReadAttribution(const Table& t, size_t i, SummaryLine& s) {
+  s.solid = t.Whole(i, "solid");
+  s.solid_found = t.Whole(i, "solid_found");
+  s.false_edges = t.Whole(i, "false_edges");
+  s.has_attribution = t.Has("missed_own_test");
+  if (!s.has_attribution) return;
+  const std::pair<const char*, int*> fields[] = {
+      {"missed_own_test", &s.missed_own_test},         {"missed_propagation", &s.missed_propagation},
+      {"missed_reach", &s.missed_reach},               {"false_own_test", &s.false_own_test},
+      {"false_propagation", &s.false_propagation},     {"false_not_estimable", &s.false_not_estimable},
+      {"false_reach", &s.false_reach}};
+  for (const auto& [name, field] : fields) *field = t.Whole(i, name);
+}
+
 void ReadSummary(const Table& t, ReportData& d) {
   for (size_t i = 0; i < t.size(); ++i) {
     SummaryLine s;
@@ -151,6 +166,7 @@ void ReadSummary(const Table& t, ReportData& d) {
     s.tests = t.Interval(i, "tests");
     s.seconds = t.Interval(i, "timing_learn_seconds");
     ReadGroups(t, i, s);
+    ReadAttribution(t, i, s);
     d.summary.push_back(std::move(s));
   }
 }
@@ -166,6 +182,8 @@ void ReadEdges(const Table& t, ReportData& d) {
     e.truth_status = t.Text(i, "truth_status");
     e.reported = t.Text(i, "learner_action") == "reported";
     e.learner_mark = t.Text(i, "learner_mark");
+    if (t.Has("decision_rule")) e.decision_rule = t.Text(i, "decision_rule");
+    if (t.Has("error_cause")) e.error_cause = t.Text(i, "error_cause");
     d.edges.push_back(std::move(e));
   }
 }

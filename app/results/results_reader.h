@@ -37,6 +37,13 @@ struct SummaryLine {
   std::array<metrics::Interval, metrics::kEdgeGroups> group_power, group_false_edge_rate;
   std::array<int, metrics::kEdgeGroups> group_solid{}, group_solid_found{}, group_reported{},
       group_false_edges{};
+  // Why edges were lost (metrics/error_attribution.h): the cause counts,
+  // summed over the replicates that ran; has_attribution is false for a
+  // summary.csv written before those columns.
+  bool has_attribution = false;
+  int solid = 0, solid_found = 0, false_edges = 0;
+  int missed_own_test = 0, missed_propagation = 0, missed_reach = 0;
+  int false_own_test = 0, false_propagation = 0, false_not_estimable = 0, false_reach = 0;
 };
 
 struct EdgeLine {
@@ -44,6 +51,9 @@ struct EdgeLine {
   int replicate = 0;
   std::string truth, learner, edge, truth_status, learner_mark;
   bool reported = false;
+  // The decision record's rule and the attributed cause (empty when the
+  // file has no such columns, or for an edge that is neither missed nor false).
+  std::string decision_rule, error_cause;
 };
 
 struct NullTestLine {

@@ -284,7 +284,10 @@ void AddPremises(const State& s, const Separation& z, const Edge& e, EdgeDecisio
   const int a = e.from;
   const int b = e.to;
   const auto add = [&](int c, int t, Mask given) {
-    if (!Contains(given, c)) d.witnesses.push_back(Witness(s, c, t, given));
+    if (Contains(given, c)) return;
+    TestRecord w = Witness(s, c, t, given);
+    w.dependent = w.dependent || w.implied;  // a premise without a test: a connection the graphs imply
+    d.witnesses.push_back(w);
   };
   if (d.rule == "D2") add(a, z.target, z.given);
   if (d.rule == "D3") add(z.source, z.target, z.given | Bit(a));
@@ -460,7 +463,7 @@ void FinalPhase(State& s) {
     }
     if (failed != nullptr) {
       d.phase = "final";
-      d.rule = failed;
+      d.rule = std::string(failed);  // not = failed: a g++ 12 -Wrestrict false positive
       // The last refuting separation seen: with an early stop it is the one
       // that failed the condition, or an implied one when none was tested.
       d.witnesses.clear();
