@@ -7,6 +7,9 @@
 //                            95% bands, power ceilings (dash-dot), targets
 //                            and planned lengths from plan.csv
 //   power-<group>-*          power per edge group (directed, loop, bidirected)
+//   lost-<learner>-*         where edges are lost: per length, the missed
+//                            solid and false edges per replicate stacked by
+//                            cause (app/report/lost_edges_figure.h)
 //   tests-*, seconds-*       tests made and learner seconds (log scale)
 //   qq-<test>-<length>-parents-given, qq-<test>-<length>-parent-missing
 //                            p-values of tests whose null holds in the truth

@@ -83,5 +83,36 @@ TEST_CASE("gnuplot renders a script to an SVG document") {
   CHECK(bad.status().message().find("gnuplot failed") == 0);
 }
 
+// Stacked bars: each part drawn from the running total of the parts below
+// it, zero parts left out, a category that never occurs has no legend entry.
+TEST_CASE("stacked bars: parts stacked bottom up, empty categories not in the legend") {
+  StackedBarPlot plot;
+  plot.title = "Where edges are lost";
+  plot.y_label = "edges per replicate";
+  plot.categories = {{"own", "#D55E00"}, {"never", "#000000"}, {"reach", "#AAAAAA"}};
+  plot.bars = {{-0.2, "missed", {1.5, 0, 0.5}}, {0.2, "false", {0.25, 0, 0}}};
+  plot.group_labels = {{0, "length 4000"}};
+  const std::string s = StackedBarScript(plot);
+  // Category 0: bar 1 from 0 to 1.5, bar 2 from 0 to 0.25; category 2 on top of 1.5.
+  CHECK(s.find("$c0 << EOD\n-0.2 0 1.5\n0.2 0 0.25\nEOD\n") != std::string::npos);
+  CHECK(s.find("$c1 << EOD\nEOD\n") != std::string::npos);
+  CHECK(s.find("$c2 << EOD\n-0.2 1.5 2\nEOD\n") != std::string::npos);
+  CHECK(s.find("title 'own'") != std::string::npos);
+  CHECK(s.find("title 'never'") == std::string::npos);
+  CHECK(s.find("$c2 using 1:3:($1-0.18):($1+0.18):2:3 with boxxyerror lc rgb '#AAAAAA' title 'reach'") !=
+        std::string::npos);
+  CHECK(s.find("set xtics scale 0 ('missed' -0.2, 'false' 0.2)") != std::string::npos);
+  CHECK(s.find("set label 'length 4000' at first 0, graph 0 center") != std::string::npos);
+  CHECK(s.find("set yrange [0:2.16]") != std::string::npos);  // tallest bar 2, 8% headroom
+  const Result<std::string> svg = RenderGnuplot(s);
+  REQUIRE_MESSAGE(svg.ok(), (svg.ok() ? "" : svg.status().message()));
+  CHECK(svg->find("reach") != std::string::npos);
+  // Nothing lost: a message instead of bars, still a valid script.
+  plot.bars = {{0, "missed", {0, 0, 0}}};
+  const std::string empty = StackedBarScript(plot);
+  CHECK(empty.find("no missed solid edge and no false edge") != std::string::npos);
+  CHECK(RenderGnuplot(empty).ok());
+}
+
 }  // namespace
 }  // namespace locind::app

@@ -24,6 +24,7 @@
 #include "app/cli/command.h"
 #include "app/io/external_program.h"
 #include "app/io/error.h"
+#include "app/report/lost_edges_figure.h"
 #include "tests/app/command_fixture.h"
 #include "tests/app/run_folders.h"
 
@@ -201,7 +202,8 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   // power, false-edges, tests, seconds; power per edge group (the class has
   // solid directed edges, loops and b <-> c from the hidden h: 3 panels); one
   // QQ plot per row of calibration.csv (one level: test, length and tag);
-  // truth, projection, class; 3 learners x 2 replicates learned.
+  // truth, projection, class; 3 learners x 2 replicates learned; where edges
+  // are lost, one figure per learner.
   const std::vector<std::map<std::string, std::string>> groups = CsvRows(StudyFolder() / "calibration.csv");
   // hawkes-lr at 150 and 600; target a (parents: a only) gives "yes" rows,
   // targets b and c (b <-> c through h) only "no" rows.
@@ -212,7 +214,10 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
                            (g.at("all_parents_given") == "yes" ? "-parents-given" : "-parent-missing");
     CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (id + ".svg")), id);
   }
-  CHECK(figures == 4 + 3 + static_cast<int>(groups.size()) + 3 + 6);
+  CHECK(figures == 4 + 3 + static_cast<int>(groups.size()) + 3 + 6 + 3);
+  for (const char* lost : {"lost-pairwise-hawkes-lr", "lost-maximal-search-hawkes-lr", "lost-maximal-search-oracle"}) {
+    CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (std::string(lost) + ".svg")), lost);
+  }
   for (const char* group : {"power-directed", "power-loop", "power-bidirected"}) {
     CHECK_MESSAGE(fs::exists(StudyFolder() / "figures" / (std::string(group) + ".svg")), group);
   }
@@ -223,6 +228,40 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   }
   CHECK(html.find("<script") == std::string::npos);
   CHECK(html.find("statistical hypotheses") != std::string::npos);  // the caution
+}
+
+// The bars of "where edges are lost", built from the folder as the report
+// builds them, add up to summary.csv's missed solid and false edges per
+// replicate that ran, for every learner and length; the propagated missed
+// edges are all found in edges.csv with their rule (nothing left over).
+TEST_CASE("where edges are lost: the bars add up to summary.csv") {
+  const Result<ReportData> data = ReadReportData(StudyFolder().string());
+  REQUIRE(data.ok());
+  int lines = 0;
+  int missed_total = 0;
+  for (const SummaryLine& s : data->summary) {
+    REQUIRE(s.has_attribution);
+    const LostCounts c = CountLost(s, data->edges);
+    int split = 0;
+    for (const EdgeLine& e : data->edges) {
+      split += e.cell == s.cell && e.learner == s.learner && !e.reported && e.error_cause == "propagation";
+    }
+    CHECK(split == s.missed_propagation);
+    const StackedBarPlot plot = LostEdgesPlot(s.learner, "t", {&s}, data->edges);
+    REQUIRE(plot.bars.size() == 2);
+    double missed = 0, false_edges = 0;
+    for (double v : plot.bars[0].parts) missed += v;
+    for (double v : plot.bars[1].parts) false_edges += v;
+    const int ran = s.replicates - s.failed;
+    REQUIRE(ran > 0);
+    CHECK(missed == doctest::Approx(double(s.solid - s.solid_found) / ran));
+    CHECK(false_edges == doctest::Approx(double(s.false_edges) / ran));
+    if (s.learner == "maximal-search/oracle") CHECK(c.missed[static_cast<size_t>(LostCause::kReach)] == 0);
+    missed_total += s.solid - s.solid_found;
+    ++lines;
+  }
+  CHECK(lines == 6);
+  CHECK(missed_total > 0);  // not vacuous: short windows lose edges
 }
 
 TEST_CASE("the calibration table equals calibration.csv, with no warning unless a row is above the level") {
