@@ -74,7 +74,17 @@ bool UsesOtherPairs(const EdgeDecision* d) {
   return d != nullptr && d->phase != "test" && d->phase != "screen" && d->phase != "fit";
 }
 
-AttributedEdge AttributeFalse(const graph::Edge& e, const EdgeDecision* d,
+// A kept edge whose record explains it in full: margin-search's "own
+// evidence" names the separation it set aside and the edge's own tests.
+bool SelfExplained(const EdgeDecision* d, TestJudge& judge) {
+  if (d == nullptr || d->rule != "own evidence" || d->witnesses.empty()) return false;
+  for (const TestRecord& w : d->witnesses) {
+    if (IsWrong(judge.Judge(w))) return false;
+  }
+  return true;
+}
+
+AttributedEdge AttributeFalse(const graph::Edge& e, const EdgeDecision* d, TestJudge& judge,
                               const std::vector<TestRecord>& log,
                               const std::vector<TestVerdict>& verdicts) {
   AttributedEdge a{e, false, ErrorCause::kReach, std::string(), std::nullopt};
@@ -96,6 +106,7 @@ AttributedEdge AttributeFalse(const graph::Edge& e, const EdgeDecision* d,
                                                : std::optional<TestRecord>(d->witnesses[0]));
     return a;
   }
+  if (SelfExplained(d, judge)) return a;  // every answer it rests on is right: the method's rule
   if (UsesOtherPairs(d)) {
     if (auto t = FirstInLog(log, verdicts, IsWrong)) {
       a.cause = ErrorCause::kPropagation;
@@ -196,7 +207,7 @@ ErrorAttribution AttributeErrors(const TruthClass& truth_class,
     if (audit.truth == TruthStatus::kSolid && !audit.reported) {
       out.edges.push_back(AttributeMissed(audit.edge, d, judge, result.log, verdicts));
     } else if (audit.truth == TruthStatus::kAbsent && audit.reported) {
-      out.edges.push_back(AttributeFalse(audit.edge, d, result.log, verdicts));
+      out.edges.push_back(AttributeFalse(audit.edge, d, judge, result.log, verdicts));
     } else {
       continue;
     }

@@ -29,6 +29,11 @@
 //     own_test     a test of its own pair is a false dependence;
 //     not_estimable otherwise a test of its own pair could not be computed, or
 //                  the edge is undecided;
+//     reach        when the record explains the edge in full and every
+//                  answer it names is right: margin-search's rule "own
+//                  evidence" (a separation set aside against the edge's own
+//                  strong dependence, e.g. a dependence that a hidden common
+//                  driver causes);
 //     propagation  otherwise, for a method whose decisions use other pairs'
 //                  answers (every phase but "test", "screen" and "fit"), the
 //                  first wrong test of the log;

@@ -13,6 +13,7 @@
 #include "graph/latent_projection.h"
 #include "learners/independence/oracle_test.h"
 #include "learners/methods/exhaustive_learner.h"
+#include "learners/methods/margin_search.h"
 #include "learners/methods/maximal_search.h"
 #include "learners/methods/pairwise_learner.h"
 #include "learners/methods/screening_learner.h"
@@ -258,6 +259,43 @@ TEST_CASE("maximal-search and exhaustive: not-estimable tests never lose an edge
   }
   MESSAGE("undecided decisions " << undecided << ", false edges " << false_edges);
   CHECK(undecided > 0);
+}
+
+// The pumping station of configs/demo.yaml with every answer right but
+// statistical (df 1: separations p = 0.9, connections p = 1e-6): margin-search
+// keeps operator_log -> valve_alarm, which the hidden maintenance process
+// makes strongly dependent but which is not in N, against the separation
+// valve_alarm from flow_alert given {valve_alarm} (rule "own evidence",
+// learners/methods/margin_search.h). No test is wrong, so the false edge is
+// the method's rule: reach, not propagation.
+TEST_CASE("margin-search: a false edge kept on its own evidence with every answer right is reach") {
+  graph::Dmg g({"pump_alarm", "pressure_alert", "flow_alert", "valve_alarm", "operator_log", "power_dip",
+                "maintenance"});
+  for (auto [a, b] : std::vector<std::pair<int, int>>{
+           {0, 1}, {1, 2}, {3, 2}, {2, 4}, {5, 0}, {5, 1}, {6, 3}, {6, 4}, {0, 0}, {2, 2}, {4, 4}, {5, 5}}) {
+    g.AddDirected(a, b);
+  }
+  const graph::TruthGraph truth{g, {5, 6}};
+  learners::OracleTest oracle = *learners::OracleTest::FromTruth(truth);
+  learners::MarginSearch method;
+  const Run r = RunMethod(method, truth, [&oracle](const TestQuery& q) -> std::optional<TestResult> {
+    const bool separated = oracle.Run(q).p_value == 1;
+    return separated ? TestResult{0.5, 1, 0.9, TestStatus::kOk, ""} : TestResult{30, 1, 1e-6, TestStatus::kOk, ""};
+  });
+  CHECK(r.attribution.tests.correct == r.result.tests);
+  CHECK(r.attribution.false_edges() == ScoreGraph(r.truth, r.result.graph).total.false_edges);
+  int own_evidence = 0;
+  bool found = false;
+  for (const AttributedEdge& a : r.attribution.edges) {
+    if (a.missed || a.rule != "own evidence") continue;
+    ++own_evidence;
+    CHECK(a.cause == ErrorCause::kReach);
+    CHECK_FALSE(a.blamed.has_value());
+    found |= a.edge == Edge{4, 3, EdgeKind::kDirected};  // operator_log -> valve_alarm
+  }
+  CHECK(own_evidence > 0);
+  CHECK(found);
+  CHECK(r.attribution.false_propagation == 0);  // no wrong test to propagate
 }
 
 }  // namespace
