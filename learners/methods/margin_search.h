@@ -50,7 +50,10 @@
 // What it gives up: with data, an edge whose tests all gave p <= level / 10
 // is kept whatever the separations say, so a pair that is inseparable but
 // not adjacent in the maximal graph (a hidden common driver, an inducing
-// path) keeps its edge when its dependence is strong, and edges with weak
+// path) keeps its edge when its dependence is strong (in the demo:
+// operator_log -> valve_alarm, made dependent by a hidden common driver and
+// removed under the oracle by F6(i); docs/margin_search.md has the numbers
+// and a stricter variant tried), and edges with weak
 // evidence still fall to one separation with margin. It reports more edges
 // than maximal-search, and some are false. In the spirit
 // of the conservative search of Ramsey, Zhang & Spirtes (2006, UAI), an
