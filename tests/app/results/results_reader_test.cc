@@ -36,7 +36,7 @@ struct Folder {
                              "0.4,0.2,0.6,5,2,0,0,0,2,0,"
                              ",,,0,0,,,,0,0,"
                              // seconds, then not_estimable and the ten attribution counts
-                             "0.01,0.005,0.02,0,0,0,0,0,0,0,0,0,0,0\n");
+                             "0.01,0.005,0.02,0,7,1,0,2,2,1,0,0,0,0\n");
     Write("edges.csv", EdgeHeader() + "\n" +
                            "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,kept,test,dependent,b,a,b,3.2,"
                            "0.01,ok,dependent,test,,,\n");
@@ -71,7 +71,17 @@ TEST_CASE("the files of a result folder read back by column name") {
   CHECK(s.group_power[int(metrics::EdgeGroup::kDirected)].low == 0.4);
   CHECK(s.group_solid_found[int(metrics::EdgeGroup::kLoop)] == 2);
   CHECK(s.group_reported[int(metrics::EdgeGroup::kDirected)] == 4);
+  // The causes: 5 missed solid edges (10 solid, 5 found) as 2 + 2 + 1, no false edge.
+  CHECK(s.has_attribution);
+  CHECK(s.solid == 10);
+  CHECK(s.solid_found == 5);
+  CHECK(s.missed_own_test == 2);
+  CHECK(s.missed_propagation == 2);
+  CHECK(s.missed_reach == 1);
+  CHECK(s.false_edges + s.false_own_test + s.false_reach == 0);
   REQUIRE(d->edges.size() == 1);
+  CHECK(d->edges[0].decision_rule == "dependent");
+  CHECK(d->edges[0].error_cause.empty());
   CHECK(d->edges[0].edge == "a -> b");
   CHECK(d->edges[0].reported);
   CHECK(d->edges[0].truth_status == "solid");
