@@ -3,6 +3,7 @@
 //  - the calibration table equals calibration.csv, and a folder whose
 //    true-null p-values are made small gets a warning line per group,
 //  - every figure is an SVG file and sits inline in the page,
+//  - the bars of "where edges are lost" add up to summary.csv's counts,
 //  - headless Chromium loads the page with no errors and sees every figure
 //    with a non-empty size (a screenshot is kept as a test artefact in
 //    build/test-artifacts/report.png).
