@@ -114,6 +114,11 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   const std::string identity =
       Hex(base::HashText(StudyJson(study, cells, truths))) + " part " + o.part.Text();
   Result<std::unique_ptr<Journal>> journal = Journal::Open(dir, identity);
+  // A folder of another study or share is a usage problem (exit 2); a busy
+  // or unwritable folder is exit 1.
+  if (!journal.ok() && journal.status().message() == ForeignJournal(dir, identity)) {
+    throw UsageError{journal.status().message()};
+  }
   if (!journal.ok()) {
     err << "locind run: " << journal.status().message() << "\n";
     return kExitFailure;
