@@ -9,3 +9,9 @@ if(LOCIND_BUILD_APP)
            COMMAND /usr/bin/python3 ${CMAKE_CURRENT_SOURCE_DIR}/tests/scripts/output_files_test.py
                    $<TARGET_FILE:locind> ${CMAKE_CURRENT_SOURCE_DIR})
 endif()
+# The program's --version, aligned top-level help, and --help of every command.
+if(LOCIND_BUILD_APP)
+  add_test(NAME scripts:cli_version_and_help
+           COMMAND /usr/bin/python3 ${CMAKE_CURRENT_SOURCE_DIR}/tests/scripts/cli_top_level_test.py
+                   $<TARGET_FILE:locind>)
+endif()
