@@ -248,8 +248,8 @@ int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std
   if (args.empty() || kSubcommands.count(args[0]) == 0) {
     const bool help = !args.empty() && (args[0] == "--help" || args[0] == "-h");
     if (!help) {
-      err << "locind graph: " << (args.empty() ? "missing SUBCOMMAND" : "unknown subcommand '" + args[0] + "'")
-          << "\n";
+      const UsageError problem{args.empty() ? "missing SUBCOMMAND" : "unknown subcommand '" + args[0] + "'"};
+      err << "locind graph: " << problem.ToString() << "\n";
     }
     (help ? out : err) << GraphUsage();
     return help ? kExitOk : kExitInputError;

@@ -49,7 +49,7 @@ int main(int argc, char** argv) {
   for (const Command& c : kCommands) {
     if (name == c.name) return c.run(std::vector<std::string>(argv + 2, argv + argc), std::cout, std::cerr);
   }
-  std::cerr << "locind: unknown command '" << name << "'\n";
+  std::cerr << "locind: " << locind::app::UsageError{"unknown command '" + name + "'"}.ToString() << "\n";
   PrintUsage(std::cerr);
   return locind::app::kExitInputError;
 }

@@ -228,3 +228,22 @@ TEST_CASE("numeric process ids in --target, --source and --given") {
 
 }  // namespace
 }  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+TEST_CASE("bytes that are not printable UTF-8 are escaped in error lines") {
+  // An option and a file name with a Latin-1 byte and an escape character.
+  Outcome r = Run({"data.csv", "--tar\xe9", "b"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.find("--tar\\xe9") != std::string::npos);
+  CHECK(r.err.find('\xe9') == std::string::npos);
+  // A query name typed in another encoding and a terminal escape sequence.
+  const Files f;
+  r = Run({f.events, "--target", "caf\xe9\x1b[31m", "--source", "a"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == f.events + ": --target: unknown process 'caf\\xe9\\x1b[31m'\n");
+}
+
+}  // namespace
+}  // namespace locind::app
