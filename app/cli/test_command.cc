@@ -11,8 +11,8 @@
 // event-local-covariance, event-local-covariance-end; drift-exact-lr
 // (default for paths), drift-f, drift-robust-wald. --rates sets the
 // exponential rate grid (events) or the filter rates (paths; refused with
-// drift-exact-lr, which has none). Any token without spaces, commas or
-// semicolons is a process id (app/io/process_id.h).
+// drift-exact-lr, which has none). Process ids follow app/io/process_id.h
+// (numeric ids included).
 // Prints the query in words (b, A and C by name, and whether b's own past is
 // in C), then target, sources, given, test, statistic, df, p_value and
 // status (with the reason when not estimable), one "key: value" per line, or
@@ -233,7 +233,7 @@ const char kTestHelp[] =
     "  condition on its own past (the usual question; a warning says when it is left out)\n"
     "  DATA.csv: an event file (header time,process) or a path file (header time,<process ids>),\n"
     "  told apart by the header unless --kind events|paths says; any token without spaces,\n"
-    "  commas or semicolons is a process id, numeric ids included\n"
+    "  commas, semicolons, quotes or backslashes is a process id, numeric ids included\n"
     "  --rates R1,R2: exponential rates (events) or filter rates (drift-f, drift-robust-wald)\n"
     "tests and what they assume:\n"
     "  events:\n"

@@ -10,7 +10,7 @@ bool IsValidProcessId(std::string_view id) {
   // escape any that are not well-formed (app/io/error.h).
   return std::none_of(id.begin(), id.end(), [](char ch) {
     const auto byte = static_cast<unsigned char>(ch);
-    return byte <= 0x20 || byte == 0x7f || ch == ',' || ch == ';' || ch == '"';
+    return byte <= 0x20 || byte == 0x7f || ch == ',' || ch == ';' || ch == '"' || ch == '\\';
   });
 }
 

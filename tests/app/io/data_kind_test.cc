@@ -39,7 +39,7 @@ TEST_CASE("process ids: any token without separators, numeric ids included") {
   for (const char* id : {"x1", "17", "003", "unit-4", "n1.a", "caf\xc3\xa9", "A/B"}) {
     CHECK(IsValidProcessId(id));
   }
-  for (const char* id : {"", "a b", "a,b", "a;b", "a\"b", "#1", "a\tb", "a\x7f"}) {
+  for (const char* id : {"", "a b", "a,b", "a;b", "a\"b", "#1", "a\tb", "a\x7f", "a\\b"}) {
     CHECK_FALSE(IsValidProcessId(id));
   }
 }

@@ -67,7 +67,7 @@ TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("# window: 2,1\n") == "ev.csv:1:10: window: start must be before end");
   CHECK(ErrorOf("time,process\n1,a b\n") ==
         "ev.csv:2:3: process: expected a process id (a process id is any token without spaces, "
-        "commas, semicolons or '\"', not starting with '#')");
+        "commas, semicolons, '\"' or '\\', not starting with '#')");
   CHECK(ErrorOf("# processes: a\n# processes: b\n") == "ev.csv:2:1: processes: given twice");
   CHECK(ErrorOf("# window: 0,1\n# window: 0,2\n") == "ev.csv:2:1: window: given twice");
   CHECK(ErrorOf("# window: 0,1e999\n") == "ev.csv:1:13: window: expected a finite number");

@@ -50,7 +50,7 @@ TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("time,x\n-inf,1\n") == "p.csv:2:1: time: expected a finite number");
   CHECK(ErrorOf("time,a;b\n") ==
         "p.csv:1:6: header: expected a process id (a process id is any token without spaces, "
-        "commas, semicolons or '\"', not starting with '#')");
+        "commas, semicolons, '\"' or '\\', not starting with '#')");
   CHECK(ErrorOf("\n") ==
         "p.csv:1:1: header: expected 'time,<process ids>' (a path file; an event file has 'time,process')");
 }
