@@ -10,7 +10,7 @@ packages=(
   graphviz libgraphviz-dev gnuplot-nox
   chromium fonts-dejavu-core
   libopenmpi-dev openmpi-bin
-  python3 python3-networkx python3-scipy python3-numpy
+  python3 python3-networkx python3-scipy python3-numpy python3-pandas
   clang libclang-rt-14-dev
 )
 

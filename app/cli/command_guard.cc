@@ -46,7 +46,8 @@ int GuardCommand(const std::string& name, std::ostream& err, const std::function
     Print(name, err, e);
     return ExitCode(e.kind);
   } catch (const boost::program_options::error& e) {
-    err << "locind " << name << ": " << e.what() << "\n";
+    // The message quotes the user's words: escaped like every error line.
+    Print(name, err, UsageError{e.what()});
     if (!usage.empty()) err << usage << "\n";
     return ExitCode(ErrorKind::kBadUsage);
   } catch (const std::exception& e) {

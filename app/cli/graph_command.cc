@@ -5,6 +5,10 @@
 //   class FILE [--json]                          the equivalence graph
 //   equivalent FILE1 FILE2                       equivalent|not equivalent
 //   draw FILE -o OUT.svg|OUT.dot [--class]       a drawing
+//
+// check and equivalent answer through the exit code too: 0 for separated /
+// equivalent, 1 for connected / not equivalent, 2 for bad input or usage
+// (as every command). Every subcommand takes --help.
 #include <boost/program_options.hpp>
 #include <map>
 #include <sstream>
@@ -13,6 +17,7 @@
 #include "app/io/error.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/io/graph_file.h"
 #include "app/io/graph_json.h"
 #include "app/io/svg_render.h"
@@ -30,20 +35,22 @@ namespace po = boost::program_options;
 using graph::Dmg;
 using graph::TruthGraph;
 
-// Parses `args` with `options` and one or more positional FILE arguments.
+// Parses `args` with `options` and the positional graph files, named in
+// errors as the usage writes them (FILE, or FILE1 and FILE2).
 po::variables_map ParseArgs(const std::vector<std::string>& args, const po::options_description& options,
                             int files) {
-  po::options_description all = options;
-  all.add_options()("file", po::value<std::vector<std::string>>(), "input files");
-  po::positional_options_description positional;
-  positional.add("file", files);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(all).positional(positional).run(), vm);
-  po::notify(vm);
-  if (!vm.count("file") || vm["file"].as<std::vector<std::string>>().size() != size_t(files)) {
-    throw UsageError{"expected " + std::to_string(files) + " graph file(s)"};
+  std::vector<Positional> positional;
+  if (files == 1) {
+    positional.push_back({"file1", "FILE (a graph file)"});
+  } else {
+    positional.push_back({"file1", "FILE1 (the first graph file)"});
+    positional.push_back({"file2", "FILE2 (the second graph file)"});
   }
-  return vm;
+  return ParseCommandLine(args, options, positional);
+}
+
+std::string FileArg(const po::variables_map& vm, int k = 1) {
+  return vm["file" + std::to_string(k)].as<std::string>();
 }
 
 // Reads a graph file and projects it onto its observed nodes.
@@ -81,7 +88,7 @@ int Check(const std::vector<std::string>& args, std::ostream& out) {
       "to", po::value<std::string>()->required(), "target node(s), comma-separated")(
       "given", po::value<std::string>()->default_value(""), "conditioning nodes, comma-separated");
   po::variables_map vm = ParseArgs(args, o, 1);
-  const std::string path = vm["file"].as<std::vector<std::string>>()[0];
+  const std::string path = FileArg(vm);
   Loaded g = LoadProjected(path);
   const graph::Mask from = NodeSet(g, vm["from"].as<std::string>(), "--from", path);
   const graph::Mask to = NodeSet(g, vm["to"].as<std::string>(), "--to", path);
@@ -89,15 +96,16 @@ int Check(const std::vector<std::string>& args, std::ostream& out) {
   if (from == 0 || to == 0) throw UsageError{"--from and --to need at least one node"};
   if ((from & given) != 0) throw UsageError{"a --from node may not also be in --given"};
   graph::BitGraph bits = *graph::ToBitGraph(g.projected);
-  out << (graph::MuSeparated(bits, from, to, given) ? "separated" : "connected") << "\n";
-  return kExitOk;
+  const bool separated = graph::MuSeparated(bits, from, to, given);
+  out << (separated ? "separated" : "connected") << "\n";
+  return separated ? kExitOk : kExitFailure;
 }
 
 int Project(const std::vector<std::string>& args, std::ostream& out) {
   po::options_description o("locind graph project FILE [--json]");
   o.add_options()("json", "print JSON instead of the graph file format");
   po::variables_map vm = ParseArgs(args, o, 1);
-  Loaded g = LoadProjected(vm["file"].as<std::vector<std::string>>()[0]);
+  Loaded g = LoadProjected(FileArg(vm));
   if (vm.count("json")) {
     out << GraphJson(g.projected) << "\n";
   } else {
@@ -124,7 +132,7 @@ int Class(const std::vector<std::string>& args, std::ostream& out) {
   po::options_description o("locind graph class FILE [--json]");
   o.add_options()("json", "print JSON instead of text");
   po::variables_map vm = ParseArgs(args, o, 1);
-  const std::string path = vm["file"].as<std::vector<std::string>>()[0];
+  const std::string path = FileArg(vm);
   const auto eg = ClassOf(LoadProjected(path), path);
   const std::vector<graph::Edge> dashed = DashedEdges(eg);
   if (vm.count("json")) {
@@ -142,7 +150,7 @@ int Class(const std::vector<std::string>& args, std::ostream& out) {
 int Equivalent(const std::vector<std::string>& args, std::ostream& out) {
   po::options_description o("locind graph equivalent FILE1 FILE2");
   po::variables_map vm = ParseArgs(args, o, 2);
-  const auto files = vm["file"].as<std::vector<std::string>>();
+  const std::vector<std::string> files = {FileArg(vm, 1), FileArg(vm, 2)};
   Loaded g1 = LoadProjected(files[0]);
   Loaded g2 = LoadProjected(files[1]);
   // Put the second graph's observed nodes in the first graph's order.
@@ -158,7 +166,7 @@ int Equivalent(const std::vector<std::string>& args, std::ostream& out) {
   Result<bool> same = graph::MarkovEquivalent(g1.projected, g2.projected.Induced(order));
   if (!same.ok()) throw Error{files[0], 0, 0, "", same.status().message()};
   out << (*same ? "equivalent" : "not equivalent") << "\n";
-  return kExitOk;
+  return *same ? kExitOk : kExitFailure;
 }
 
 int Draw(const std::vector<std::string>& args, std::ostream& out) {
@@ -166,7 +174,7 @@ int Draw(const std::vector<std::string>& args, std::ostream& out) {
   o.add_options()("output,o", po::value<std::string>()->required(), "output file (.svg or .dot)")(
       "class", "draw the equivalence graph of the projection (dashed edges dashed)");
   po::variables_map vm = ParseArgs(args, o, 1);
-  const std::string path = vm["file"].as<std::vector<std::string>>()[0];
+  const std::string path = FileArg(vm);
   const std::string target = vm["output"].as<std::string>();
   const bool svg = target.size() >= 4 && target.substr(target.size() - 4) == ".svg";
   const bool dot_file = target.size() >= 4 && target.substr(target.size() - 4) == ".dot";
@@ -196,21 +204,64 @@ int Draw(const std::vector<std::string>& args, std::ostream& out) {
 }
 
 using Handler = int (*)(const std::vector<std::string>&, std::ostream&);
-const std::map<std::string, Handler> kSubcommands = {
-    {"check", Check}, {"project", Project}, {"class", Class}, {"equivalent", Equivalent},
-    {"draw", Draw}};
+struct Subcommand {
+  Handler run;
+  const char* usage;
+  const char* help;  // the options and the answer, aligned
+};
+
+const std::map<std::string, Subcommand> kSubcommands = {
+    {"check",
+     {Check, "locind graph check FILE --from A --to B [--given C1,C2]",
+      "  is A mu-separated from B given C in the latent projection of FILE?\n"
+      "  --from A1,A2   source node(s)\n"
+      "  --to B1,B2     target node(s)\n"
+      "  --given C1,C2  conditioning nodes (default: none)\n"
+      "  prints separated (exit 0) or connected (exit 1); bad input or usage exit 2\n"}},
+    {"project",
+     {Project, "locind graph project FILE [--json]",
+      "  the latent projection of FILE onto its observed nodes\n"
+      "  --json         print JSON instead of the graph file format\n"}},
+    {"class",
+     {Class, "locind graph class FILE [--json]",
+      "  the equivalence graph of the projection (dashed edges listed)\n"
+      "  --json         print JSON instead of text\n"}},
+    {"equivalent",
+     {Equivalent, "locind graph equivalent FILE1 FILE2",
+      "  are the two projections Markov equivalent?\n"
+      "  prints equivalent (exit 0) or not equivalent (exit 1); bad input or usage exit 2\n"}},
+    {"draw",
+     {Draw, "locind graph draw FILE -o OUT.svg|OUT.dot [--class]",
+      "  -o, --output OUT  output file, .svg or .dot\n"
+      "  --class           draw the equivalence graph of the projection (dashed edges dashed)\n"}}};
+
+std::string GraphUsage() {
+  std::string text = "usage: locind graph SUBCOMMAND FILE ... (locind graph SUBCOMMAND --help)\n";
+  for (const auto& [name, sub] : kSubcommands) text += "       " + std::string(sub.usage) + "\n";
+  text += "graph files: nodes, edges and hidden nodes in YAML (README.md, \"The graph engine from the command line\")\n";
+  return text;
+}
 
 }  // namespace
 
 int RunGraphCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   if (args.empty() || kSubcommands.count(args[0]) == 0) {
-    err << "usage: locind graph check|project|class|equivalent|draw FILE ... (see DEVELOPERS.md)\n";
-    return kExitInputError;
+    const bool help = !args.empty() && (args[0] == "--help" || args[0] == "-h");
+    if (!help) {
+      const UsageError problem{args.empty() ? "missing SUBCOMMAND" : "unknown subcommand '" + args[0] + "'"};
+      err << "locind graph: " << problem.ToString() << "\n";
+    }
+    (help ? out : err) << GraphUsage();
+    return help ? kExitOk : kExitInputError;
   }
+  const Subcommand& sub = kSubcommands.at(args[0]);
   const std::vector<std::string> rest(args.begin() + 1, args.end());
-  return GuardCommand("graph " + args[0], err, [&] {
-    return kSubcommands.at(args[0])(rest, out);
-  });
+  if (WantsHelp(rest)) {
+    out << "usage: " << sub.usage << "\n" << sub.help;
+    return kExitOk;
+  }
+  return GuardCommand("graph " + args[0], err, [&] { return sub.run(rest, out); },
+                      std::string("usage: ") + sub.usage);
 }
 
 }  // namespace locind::app

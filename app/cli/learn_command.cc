@@ -1,11 +1,14 @@
 // locind learn: run a learning method on data or on the oracle of a graph.
 //
 //   learn --methods                                  name<TAB>description per method
-//   learn DATA.csv --method NAME [--test NAME] [--level 0.05] [--out DIR] [--json]
+//   learn DATA.csv --method NAME [--test NAME] [--kind events|paths] [--level 0.05] [--out DIR] [--json]
 //   learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]
 //
 // DATA.csv is an event file (header "time,process") or a path file (header
-// "time,<names>"); the test defaults to hawkes-lr for events and drift-exact-lr for
+// "time,<process ids>"), told apart by app/io/data_kind.h unless --kind says;
+// options the chosen method does not read (--size but for screen, --penalty
+// but for penalized-fit, --test and --level for a method without tests) are
+// refused. The test defaults to hawkes-lr for events and drift-exact-lr for
 // paths. The learned graph is printed (graph file format plus the dashed
 // edges and a cost line, or with --json the shape of `locind graph class
 // --json`). With --out the directory receives graph.json, graph.dot,
@@ -25,6 +28,8 @@
 #include "base/number_format.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
+#include "app/io/data_kind.h"
 #include "app/study/test_choice.h"
 #include "app/io/event_csv.h"
 #include "app/io/graph_file.h"
@@ -49,6 +54,7 @@ struct LearnOptions {
   std::string oracle;  // GRAPH.yaml, or empty
   std::string method;
   std::string test;    // empty: the default for the data kind
+  std::string kind;    // events, paths or empty (from the header)
   double level = 0.05;
   int screening_size = 1;
   double penalty = -1;
@@ -57,21 +63,28 @@ struct LearnOptions {
   bool list = false;
 };
 
+// Options only some methods read; giving one to another method is refused
+// rather than silently ignored.
+void RefuseUnusedOptions(const po::variables_map& vm, const learners::MethodEntry& method) {
+  const std::string name = method.name;
+  const std::string what = "method " + name;
+  if (name != "screen") RefuseOptions(vm, {"size"}, what + " (only screen reads it)");
+  if (name != "penalized-fit") RefuseOptions(vm, {"penalty"}, what + " (only penalized-fit reads it)");
+  if (!method.uses_tests) RefuseOptions(vm, {"test", "level"}, what + " (it makes no tests)");
+  if (vm.count("oracle")) RefuseOptions(vm, {"kind"}, "--oracle (it reads a graph file)");
+}
+
 LearnOptions ParseOptions(const std::vector<std::string>& args) {
   LearnOptions o;
   po::options_description d("locind learn");
   d.add_options()("methods", "list the methods")("oracle", po::value(&o.oracle), "graph file")(
       "method", po::value(&o.method), "method name")("test", po::value(&o.test), "test name")(
-      "level", po::value(&o.level), "significance level")(
+      "kind", po::value(&o.kind), "events or paths")("level", po::value(&o.level), "significance level")(
       "size", po::value(&o.screening_size), "screen: extra processes in C besides b")(
       "penalty", po::value(&o.penalty), "penalized-fit: L1 weight")(
-      "out", po::value(&o.out), "output directory")("json", "print JSON")(
-      "data", po::value(&o.data), "data file");
-  po::positional_options_description positional;
-  positional.add("data", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
+      "out", po::value(&o.out), "output directory")("json", "print JSON");
+  const po::variables_map vm = ParseCommandLine(args, d, {{"data", "DATA.csv", false}});
+  if (vm.count("data")) o.data = vm["data"].as<std::string>();
   o.json = vm.count("json") > 0;
   o.list = vm.count("methods") > 0;
   if (o.list) return o;
@@ -81,6 +94,9 @@ LearnOptions ParseOptions(const std::vector<std::string>& args) {
   if (o.method.empty()) {
     throw UsageError{"--method is required (locind learn --methods lists them)"};
   }
+  const learners::MethodEntry* entry = learners::FindMethod(o.method);
+  if (entry == nullptr) throw UsageError{"unknown method '" + o.method + "' (see --methods)"};
+  RefuseUnusedOptions(vm, *entry);
   if (!(o.level > 0 && o.level < 1)) throw UsageError{"--level must lie strictly between 0 and 1"};
   if (o.screening_size < 0) throw UsageError{"--size must be at least 0"};
   return o;
@@ -133,7 +149,7 @@ Inputs LoadInputs(const LearnOptions& o) {
     in.test = std::make_unique<learners::OracleTest>(std::move(oracle.value()));
     return in;
   }
-  if (LooksLikeEventFile(o.data)) {
+  if (DecideDataKind(o.data, o.kind) == DataKind::kEvents) {
     LoadEvents(o, in);
   } else {
     LoadPaths(o, in);
@@ -221,7 +237,6 @@ int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   const LearnOptions o = ParseOptions(args);
   if (o.list) return ListMethods(out);
   const learners::MethodEntry* entry = learners::FindMethod(o.method);
-  if (entry == nullptr) throw UsageError{"unknown method '" + o.method + "' (see --methods)"};
   Inputs in = LoadInputs(o);
   learners::MethodSettings settings;
   settings.screening_size = o.screening_size;
@@ -240,16 +255,23 @@ int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream&
 
 const char kLearnHelp[] =
     "usage: locind learn --methods\n"
-    "       locind learn DATA.csv --method NAME [--test NAME] [--level 0.05] [--out DIR] [--json]\n"
+    "       locind learn DATA.csv --method NAME [--test NAME] [--kind events|paths] [--level 0.05]\n"
+    "                    [--out DIR] [--json]\n"
     "       locind learn --oracle GRAPH.yaml --method NAME [--level 0.05] [--out DIR] [--json]\n"
     "  --methods        list the methods (name, tab, description)\n"
+    "  DATA.csv         an event file (header time,process) or a path file (header\n"
+    "                   time,<process ids>); any token without spaces, commas,\n"
+    "                   semicolons, quotes or backslashes is a process id, numeric\n"
+    "                   ids included\n"
+    "  --kind K         events or paths: which reader (default: from the header)\n"
     "  --method NAME    the learning method\n"
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chisq, hawkes-lr-signed,\n"
     "                   event-local-covariance, event-local-covariance-end;\n"
     "                   paths: drift-exact-lr (default), drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
-    "  --size K         screen: at most K processes in C besides the target (default 1)\n"
-    "  --penalty C      penalized-fit: scale of the L1 weight (default 1)\n"
+    "  --size K         screen only: at most K processes in C besides the target (default 1)\n"
+    "  --penalty C      penalized-fit only: scale of the L1 weight (default 1)\n"
+    "                   (an option the chosen method does not read is refused)\n"
     "  --oracle FILE    answer tests from the graph file (hidden nodes hidden)\n"
     "  --out DIR        write graph.json, graph.dot, graph.svg, tests.csv and decisions.csv\n"
     "                   (why each candidate edge was kept or removed) into DIR\n"
@@ -259,7 +281,7 @@ const char kLearnHelp[] =
 }  // namespace
 
 int RunLearnCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << kLearnHelp;
     return kExitOk;
   }

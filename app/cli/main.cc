@@ -5,6 +5,8 @@
 #include <vector>
 
 #include "app/cli/command.h"
+#include "app/cli/options.h"
+#include "app/cli/version.h"
 #include "app/io/error.h"
 
 namespace {
@@ -25,8 +27,11 @@ const Command kCommands[] = {
 };
 
 void PrintUsage(std::ostream& out) {
-  out << "usage: locind COMMAND [options]   (locind COMMAND --help for details)\n\ncommands:\n";
-  for (const Command& c : kCommands) out << "  " << c.name << "\t" << c.summary << "\n";
+  out << "usage: locind COMMAND [options]   (locind COMMAND --help for details)\n"
+         "       locind --version\n\ncommands:\n";
+  std::vector<std::pair<std::string, std::string>> rows;
+  for (const Command& c : kCommands) rows.emplace_back(c.name, c.summary);
+  out << locind::app::AlignedRows(rows);
 }
 
 }  // namespace
@@ -37,10 +42,14 @@ int main(int argc, char** argv) {
     return argc < 2 ? locind::app::kExitInputError : locind::app::kExitOk;
   }
   const std::string name = argv[1];
+  if (name == "--version") {
+    std::cout << locind::app::VersionText();
+    return locind::app::kExitOk;
+  }
   for (const Command& c : kCommands) {
     if (name == c.name) return c.run(std::vector<std::string>(argv + 2, argv + argc), std::cout, std::cerr);
   }
-  std::cerr << "locind: unknown command '" << name << "'\n";
+  std::cerr << "locind: " << locind::app::UsageError{"unknown command '" + name + "'"}.ToString() << "\n";
   PrintUsage(std::cerr);
   return locind::app::kExitInputError;
 }

@@ -12,6 +12,7 @@
 
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/io/error.h"
 #include "app/report/report.h"
 #include "app/results/results_merge.h"
@@ -79,7 +80,7 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   po::variables_map vm;
   po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
   po::notify(vm);
-  if (dirs.empty()) throw UsageError{"usage: locind merge DIR1 DIR2 ... [--out DIR]"};
+  if (dirs.empty()) throw UsageError{"missing DIR1 DIR2 ... (the part folders to join)"};
   const std::vector<PartFolder> parts = ReadParts(dirs);
   StudyOrErrors read = ParseStudyText(parts.front().study_text, parts.front().study_path);
   if (auto* errors = std::get_if<std::vector<Error>>(&read)) {
@@ -116,7 +117,7 @@ int Merge(const std::vector<std::string>& args, std::ostream& out, std::ostream&
 }  // namespace
 
 int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << "usage: locind merge DIR1 DIR2 ... [--out DIR]\n"
            "  joins the folders of locind run --part 1/N ... N/N into the results of one run\n"
            "  --out DIR     result folder (default results/<study name>)\n";

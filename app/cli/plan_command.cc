@@ -19,6 +19,7 @@
 #include "app/cli/command.h"
 #include "app/io/atomic_file.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/study/study_file.h"
 #include "app/running/study_planner.h"
 
@@ -34,16 +35,12 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   std::string out_dir;
   std::string at;
   po::options_description d("locind plan");
-  d.add_options()("study", po::value(&path), "study file")("power", po::value(&targets.power), "target power")(
+  d.add_options()("power", po::value(&targets.power), "target power")(
       "false-edges", po::value(&targets.false_edges), "largest false-edge rate")(
       "threads", po::value(&threads), "worker threads")("out", po::value(&out_dir), "folder for plan.csv")(
       "at", po::value(&at), "combination of the other grid factors");
-  po::positional_options_description positional;
-  positional.add("study", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
-  if (path.empty()) throw UsageError{"usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at COMBINATION]"};
+  const po::variables_map vm = ParseCommandLine(args, d, {{"study", "STUDY.yaml (the study file)"}});
+  path = vm["study"].as<std::string>();
   if (!(targets.power > 0 && targets.power <= 1)) throw UsageError{"--power must lie in (0, 1]"};
   if (!(targets.false_edges >= 0 && targets.false_edges < 1)) throw UsageError{"--false-edges must lie in [0, 1)"};
   if (threads < 1 || threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
@@ -78,7 +75,7 @@ int Plan(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
 }  // namespace
 
 int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << "usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at TEXT]\n"
            "  per learner, the smallest observation length with power >= --power and false-edge\n"
            "  rate <= --false-edges (search settings: the plan section of the study file)\n"

@@ -12,6 +12,7 @@
 
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/io/error.h"
 #include "app/report/report.h"
 #include "app/results/results_merge.h"
@@ -27,13 +28,8 @@ constexpr char kUsage[] = "usage: locind report DIR";
 int Report(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   std::string dir;
   po::options_description d("locind report");
-  d.add_options()("dir", po::value(&dir), "result folder");
-  po::positional_options_description positional;
-  positional.add("dir", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
-  if (dir.empty()) throw UsageError{kUsage};
+  const po::variables_map vm = ParseCommandLine(args, d, {{"dir", "DIR (the result folder)"}});
+  dir = vm["dir"].as<std::string>();
   Result<SavedStudy> saved = ReadSavedStudy(dir);
   if (!saved.ok()) {
     err << "locind report: " << saved.status().message() << "\n";
@@ -65,7 +61,7 @@ int Report(const std::vector<std::string>& args, std::ostream& out, std::ostream
 }  // namespace
 
 int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << kUsage << "\n"
         << "  writes DIR/report.html (one self-contained page) and DIR/figures/*.svg for the result\n"
            "  folder of locind run or locind merge; plan targets are drawn when DIR/plan.csv exists\n"

@@ -21,6 +21,7 @@
 #include "app/cli/command.h"
 #include "base/hashing.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/running/progress.h"
 #include "app/report/report.h"
 #include "app/results/results_table.h"
@@ -50,17 +51,13 @@ RunOptions ParseOptions(const std::vector<std::string>& args) {
   RunOptions o;
   std::string part = "1/1";
   po::options_description d("locind run");
-  d.add_options()("study", po::value(&o.study), "study file")(
+  d.add_options()(
       "threads", po::value(&o.threads), "worker threads")("out", po::value(&o.out), "output folder")(
       "part", po::value(&part), "run share K of N")(
       "mpi-assign", po::value(&o.assign), "how ranks get units");
   d.add_options()("check", po::bool_switch(&o.check), "print the expected work and memory only");
-  po::positional_options_description positional;
-  positional.add("study", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
-  if (o.study.empty()) throw UsageError{"usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]"};
+  const po::variables_map vm = ParseCommandLine(args, d, {{"study", "STUDY.yaml (the study file)"}});
+  o.study = vm["study"].as<std::string>();
   if (o.threads < 1 || o.threads > 1024) throw UsageError{"--threads must be from 1 to 1024"};
   const std::optional<Part> p = ParsePart(part);
   if (!p) throw UsageError{"--part expects K/N with 1 <= K <= N, e.g. 2/8"};
@@ -117,6 +114,11 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   const std::string identity =
       Hex(base::HashText(StudyJson(study, cells, truths))) + " part " + o.part.Text();
   Result<std::unique_ptr<Journal>> journal = Journal::Open(dir, identity);
+  // A folder of another study or share is a usage problem (exit 2); a busy
+  // or unwritable folder is exit 1.
+  if (!journal.ok() && journal.status().message() == ForeignJournal(dir, identity)) {
+    throw UsageError{journal.status().message()};
+  }
   if (!journal.ok()) {
     err << "locind run: " << journal.status().message() << "\n";
     return kExitFailure;
@@ -169,7 +171,7 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
 }  // namespace
 
 int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << "usage: locind run STUDY.yaml [--threads N] [--out DIR] [--part K/N] [--check]\n"
            "  --threads N   worker threads (default 1)\n"
            "  --out DIR     result folder (default results/<study name>); an existing one is "

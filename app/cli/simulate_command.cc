@@ -11,6 +11,7 @@
 #include "app/io/error.h"
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/io/event_csv.h"
 #include "app/io/model_file.h"
 #include "app/io/path_csv.h"
@@ -38,13 +39,9 @@ Options ParseOptions(const std::vector<std::string>& args) {
   d.add_options()("horizon", po::value<double>(&o.horizon)->required(), "window length T > 0")(
       "seed", po::value<uint64_t>(&o.seed)->required(), "random seed")(
       "replicate", po::value<uint64_t>(&o.replicate)->default_value(0), "replicate number")(
-      "out", po::value<std::string>(&o.out)->required(), "output CSV file")(
-      "model", po::value<std::string>(&o.model)->required(), "model file");
-  po::positional_options_description positional;
-  positional.add("model", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
+      "out", po::value<std::string>(&o.out)->required(), "output CSV file");
+  const po::variables_map vm = ParseCommandLine(args, d, {{"model", "MODEL.yaml (the model file)"}});
+  o.model = vm["model"].as<std::string>();
   if (!std::isfinite(o.horizon) || o.horizon <= 0) throw UsageError{"--horizon must be > 0"};
   return o;
 }
@@ -73,7 +70,7 @@ std::string Simulate(const ModelSpec& spec, const Options& o, std::string& summa
 }  // namespace
 
 int RunSimulateCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << kUsage << "\n  --horizon T     window length, > 0\n  --seed S        random seed\n"
         << "  --replicate R   replicate number (default 0)\n  --out FILE.csv  output file\n"
         << "Model files and CSV formats: configs/models/README.md\n";

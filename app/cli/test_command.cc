@@ -10,8 +10,9 @@
 // hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
 // event-local-covariance, event-local-covariance-end; drift-exact-lr
 // (default for paths), drift-f, drift-robust-wald. --rates sets the
-// exponential rate grid (events) or the filter rates (paths; not used by
-// drift-exact-lr).
+// exponential rate grid (events) or the filter rates (paths; refused with
+// drift-exact-lr, which has none). Process ids follow app/io/process_id.h
+// (numeric ids included).
 // Prints the query in words (b, A and C by name, and whether b's own past is
 // in C), then target, sources, given, test, statistic, df, p_value and
 // status (with the reason when not estimable), one "key: value" per line, or
@@ -28,6 +29,8 @@
 #include "app/cli/command.h"
 #include "base/number_format.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
+#include "app/io/data_kind.h"
 #include "app/study/test_choice.h"
 #include "app/io/event_csv.h"
 #include "app/io/graph_json.h"
@@ -60,12 +63,9 @@ TestOptions ParseOptions(const std::vector<std::string>& args) {
       "given", po::value(&o.given), "the processes C, comma-separated (include B for its own past)")(
       "kind", po::value(&o.kind), "events or paths (default: from the header)")(
       "test", po::value(&o.test), "test name")("rates", po::value(&o.rates), "rates, comma-separated")(
-      "json", "print JSON")("data", po::value(&o.data)->required(), "data file");
-  po::positional_options_description positional;
-  positional.add("data", 1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(d).positional(positional).run(), vm);
-  po::notify(vm);
+      "json", "print JSON");
+  const po::variables_map vm = ParseCommandLine(args, d, {{"data", "DATA.csv (the data file)"}});
+  o.data = vm["data"].as<std::string>();
   o.json = vm.count("json") > 0;
   if (!o.kind.empty() && o.kind != "events" && o.kind != "paths") {
     throw UsageError{"--kind must be events or paths"};
@@ -204,7 +204,11 @@ void Print(const learners::IndependenceTest& test, const learners::TestQuery& q,
 
 int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   const TestOptions o = ParseOptions(args);
-  const bool events = o.kind.empty() ? LooksLikeEventFile(o.data) : o.kind == "events";
+  const bool events = DecideDataKind(o.data, o.kind) == DataKind::kEvents;
+  // drift-exact-lr has no filter rates: --rates would be silently ignored.
+  if (!events && !o.rates.empty() && (o.test.empty() || o.test == "drift-exact-lr")) {
+    throw UsageError{"--rates is not used by drift-exact-lr; leave it out"};
+  }
   std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o) : PathTest(o);
   const learners::TestQuery query = MakeQuery(*test, o);
   WarnWithoutTargetPast(test->names(), query, err);
@@ -227,6 +231,10 @@ const char kTestHelp[] =
     "                   [--kind events|paths] [--rates R1,R2] [--json]\n"
     "  asks whether B is locally independent of A given C; put B in --given to\n"
     "  condition on its own past (the usual question; a warning says when it is left out)\n"
+    "  DATA.csv: an event file (header time,process) or a path file (header time,<process ids>),\n"
+    "  told apart by the header unless --kind events|paths says; any token without spaces,\n"
+    "  commas, semicolons, quotes or backslashes is a process id, numeric ids included\n"
+    "  --rates R1,R2: exponential rates (events) or filter rates (drift-f, drift-robust-wald)\n"
     "tests and what they assume:\n"
     "  events:\n"
     "    hawkes-lr (default)   B's intensity is a linear Hawkes intensity of the histories of\n"
@@ -246,7 +254,7 @@ const char kTestHelp[] =
     "  often as the window grows. Details and measured rejection rates: docs/tests.md.\n";
 
 int RunTestCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << kTestHelp;
     return kExitOk;
   }

@@ -35,8 +35,9 @@ struct Error {
   ErrorKind kind = ErrorKind::kBadInput;
 
   // One line: "FILE:LINE:COLUMN: FIELD: message" for located problems, the
-  // message alone when there is no file; control characters in any part
-  // are shown as C escapes.
+  // message alone when there is no file; control characters and bytes that
+  // are not well-formed UTF-8, in any part, are shown as C escapes (\n, \t,
+  // \xNN).
   std::string ToString() const;
 };
 

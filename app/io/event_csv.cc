@@ -9,7 +9,7 @@
 #include <optional>
 #include <sstream>
 
-#include "app/io/graph_file.h"
+#include "app/io/process_id.h"
 
 namespace locind::app {
 namespace csv {
@@ -73,7 +73,7 @@ std::optional<Error> ReadProcesses(const Reader& r, std::string_view rest, int c
   for (const csv::Field& f : csv::Split(rest)) {
     int col = column + f.column - 1;
     const std::string name(TrimLeft(f.text, col));
-    if (!IsValidNodeName(name)) return r.Fail(col, "processes", "expected a process name");
+    if (!IsValidProcessId(name)) return r.Fail(col, "processes", std::string("expected a process id (") + kProcessIdRule + ")");
     if (!p.index.emplace(name, p.data.processes()).second) {
       return r.Fail(col, "processes", "duplicate process '" + name + "'");
     }
@@ -121,7 +121,9 @@ std::optional<Error> ReadEvent(const Reader& r, std::string_view text, double& l
   auto it = p.index.find(name);
   if (it == p.index.end()) {
     if (p.declared) return r.Fail(f[1].column, "process", "unknown process '" + name + "'");
-    if (!IsValidNodeName(name)) return r.Fail(f[1].column, "process", "expected a process name");
+    if (!IsValidProcessId(name)) {
+      return r.Fail(f[1].column, "process", std::string("expected a process id (") + kProcessIdRule + ")");
+    }
     it = p.index.emplace(name, p.data.processes()).first;
     p.data.names.push_back(name);
     p.data.times.emplace_back();
@@ -172,7 +174,10 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
     } else if (!header && StartsWith(text, "#")) {
       continue;  // a comment before the header
     } else if (!header) {
-      if (text != kHeader) return Errors{r.Fail(1, "header", "expected 'time,process'")};
+      if (text != kHeader) {
+        return Errors{r.Fail(1, "header",
+                             "expected 'time,process' (an event file; a path file has 'time,<process ids>')")};
+      }
       header = true;
     } else if (std::optional<Error> bad = ReadEvent(r, text, last, p)) {
       if (AddError(rows, *bad)) return rows;

@@ -8,7 +8,7 @@
 #include <sstream>
 
 #include "app/io/event_csv.h"
-#include "app/io/graph_file.h"
+#include "app/io/process_id.h"
 
 namespace locind::app {
 namespace {
@@ -21,13 +21,18 @@ Error At(const std::string& file, int line, int column, const std::string& field
 std::variant<std::vector<std::string>, Error> ReadHeader(const std::string& text,
                                                               const std::string& file) {
   const std::vector<csv::Field> f = csv::Split(text);
-  if (f[0].text != "time") return At(file, 1, 1, "header", "expected 'time' as the first column");
+  if (f[0].text != "time") {
+    return At(file, 1, 1, "header",
+              "expected 'time,<process ids>' (a path file; an event file has 'time,process')");
+  }
   if (f.size() < 2) return At(file, 1, 1, "header", "expected at least one process column");
   std::vector<std::string> names;
   std::set<std::string> seen;
   for (size_t i = 1; i < f.size(); ++i) {
     const std::string name(f[i].text);
-    if (!IsValidNodeName(name)) return At(file, 1, f[i].column, "header", "expected a process name");
+    if (!IsValidProcessId(name)) {
+      return At(file, 1, f[i].column, "header", std::string("expected a process id (") + kProcessIdRule + ")");
+    }
     if (!seen.insert(name).second) {
       return At(file, 1, f[i].column, "header", "duplicate process '" + name + "'");
     }

@@ -3,6 +3,7 @@ locind_layer(locind_io
   DEPS locind_metrics yaml-cpp PkgConfig::GVC
   SOURCES
     app/io/atomic_file.cc
+    app/io/data_kind.cc
     app/io/event_csv.cc
     app/io/external_program.cc
     app/io/graph_file.cc
@@ -11,5 +12,6 @@ locind_layer(locind_io
     app/io/model_file.cc
     app/io/model_file_writer.cc
     app/io/path_csv.cc
+    app/io/process_id.cc
     app/io/svg_render.cc
 )

@@ -229,10 +229,13 @@ std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
   return out;
 }
 
+// The seed and the stream keys are 64-bit integers: written as JSON strings,
+// since readers that hold JSON numbers as doubles (R's jsonlite, JavaScript,
+// pandas) round integers above 2^53.
 std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths) {
   std::ostringstream o;
   o << "{\n  \"program\": \"locind\",\n  \"version\": \"" << kLocindVersion << "\",\n"
-    << "  \"name\": " << JsonString(study.name) << ",\n  \"seed\": " << study.seed << ",\n"
+    << "  \"name\": " << JsonString(study.name) << ",\n  \"seed\": \"" << study.seed << "\",\n"
     << "  \"streams\": \"every random stream is keyed by (seed, cell key, replicate, purpose); "
        "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap, 5 test draws; "
        "data and test draws use the data key (the cell label without the level, so cells that differ "
@@ -244,7 +247,7 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
   for (size_t i = 0; i < cells.size(); ++i) {
     const Cell& c = cells[i];
     o << (i ? ",\n    " : "\n    ") << "{\"cell\": " << c.index << ", \"label\": " << JsonString(c.label)
-      << ", \"key\": " << c.key << ", \"data_key\": " << c.data_key << ", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
+      << ", \"key\": \"" << c.key << "\", \"data_key\": \"" << c.data_key << "\", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
       << ", \"hidden_count\": " << c.hidden_count
       << ", \"stationarity_target\": " << OptionalNumber(c.stationarity) << "}";
   }

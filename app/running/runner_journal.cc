@@ -80,6 +80,31 @@ std::optional<UnitResult> DecodeUnit(const std::string& line) {
   return u;
 }
 
+// `recorded` is the journal's first line. The identity is "<study hash> part
+// K/N" (locind run): the same hash with another part is a share of this
+// study; anything else (another hash, an older journal format) is another
+// study or another version of this study file.
+std::string ForeignJournalText(const std::string& dir, const std::string& identity,
+                               const std::string& recorded) {
+  const std::string prefix = kHeaderPrefix;
+  const size_t space = identity.find(' ');
+  const std::string hash = identity.substr(0, space);
+  if (recorded.rfind(prefix + hash + " ", 0) == 0) {
+    return dir + " holds another share of this study (" + recorded.substr(prefix.size() + hash.size() + 1) +
+           ", not " + identity.substr(space + 1) + "); run this share with another --out and join the "
+           "folders with locind merge";
+  }
+  return dir + " holds the results of another study, or of another version of this study file; "
+               "give another --out, or delete " + dir + " to start this study afresh";
+}
+
+std::string ForeignJournal(const std::string& dir, const std::string& identity) {
+  std::ifstream in(dir + "/" + Journal::FileName(), std::ios::binary);
+  std::string line;
+  if (!in || !std::getline(in, line) || in.eof() || line == kHeaderPrefix + identity) return "";
+  return ForeignJournalText(dir, identity, line);
+}
+
 Result<std::unique_ptr<Journal>> Journal::Open(const std::string& dir, const std::string& identity) {
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
@@ -98,10 +123,7 @@ Result<std::unique_ptr<Journal>> Journal::Open(const std::string& dir, const std
   std::string line;
   std::streamoff good = 0;  // bytes of complete, valid lines
   if (in && std::getline(in, line) && !in.eof()) {
-    if (line != header) {
-      return Status::Error(j->path_ + " belongs to another study or part (" + line +
-                           "); remove the folder or choose another --out");
-    }
+    if (line != header) return Status::Error(ForeignJournalText(dir, identity, line));
     good = static_cast<std::streamoff>(line.size() + 1);
     while (std::getline(in, line) && !in.eof()) {  // a last line without '\n' is torn
       std::optional<UnitResult> unit = DecodeUnit(line);

@@ -29,6 +29,16 @@ namespace locind::app {
 std::string EncodeUnit(const UnitResult& unit);
 std::optional<UnitResult> DecodeUnit(const std::string& line);
 
+// The plain message for a result folder whose journal (first line
+// `recorded`) was written for another study or share than `identity`, with
+// what to do.
+std::string ForeignJournalText(const std::string& dir, const std::string& identity,
+                               const std::string& recorded);
+
+// That message when DIR's journal belongs to another study or share than
+// `identity`; "" when DIR has no journal yet or it is this one's.
+std::string ForeignJournal(const std::string& dir, const std::string& identity);
+
 class Journal {
  public:
   // Creates DIR when needed, takes its lock and reads the units already

@@ -123,7 +123,7 @@ std::string CostText(const StudySpec& study, const StudyCost& cost, int threads)
     << study.learners.size() << " learner(s) = " << cost.learner_runs << " learner run(s)\n";
   const char* unit = study.events ? "expected events" : "samples x processes";
   for (const CellCost& c : cost.per_cell) {
-    o << "  cell " << c.cell->index + 1 << " (" << c.cell->label << "): " << Count(c.points) << " "
+    o << "  cell " << c.cell->index << " (" << c.cell->label << "): " << Count(c.points) << " "
       << unit << ", about " << Megabytes(c.bytes) << " per replicate";
     if (!c.note.empty()) o << "; " << c.note;
     o << "\n";
@@ -138,7 +138,7 @@ std::string MemoryProblem(const StudySpec& study, const StudyCost& cost) {
   const double limit = static_cast<double>(study.memory_mb) * kMiB;
   for (const CellCost& c : cost.per_cell) {
     if (c.bytes > limit) {
-      return "cell " + std::to_string(c.cell->index + 1) + " (" + c.cell->label + ") needs about " +
+      return "cell " + std::to_string(c.cell->index) + " (" + c.cell->label + ") needs about " +
              Megabytes(c.bytes) +
              " per replicate, more than memory_mb: " + std::to_string(study.memory_mb) +
              "; shorten the lengths or raise memory_mb";

@@ -500,8 +500,41 @@ class StudyParser {
     return o;
   }
 
+  // The fewest observed processes any cell's truths have.
+  static int FewestObserved(const StudySpec& s) {
+    if (!s.truth.random) {
+      return s.truth.explicit_graph.graph.size() - static_cast<int>(s.truth.explicit_graph.hidden.size());
+    }
+    const graph::RandomGraphOptions& r = s.truth.random_graph;
+    if (s.grid.hidden_fixed_observed) return r.nodes;
+    int hidden = r.hidden_list.empty() ? r.hidden_count : static_cast<int>(r.hidden_list.size());
+    if (!s.grid.hidden_counts.empty()) {
+      hidden = *std::max_element(s.grid.hidden_counts.begin(), s.grid.hidden_counts.end());
+    }
+    return r.nodes - hidden;
+  }
+
+  // screen's size counts the processes of C besides the target b; with n
+  // observed processes there are n - 1 others (all of them usable for a loop
+  // b -> b, learners/methods/screening_learner.h), so a larger size asks for
+  // sets that do not exist.
+  void CheckScreenSizes(const YAML::Node& root, const StudySpec& s) {
+    const int observed = FewestObserved(s);
+    const YAML::Node list = root["learners"];
+    for (size_t i = 0; i < s.learners.size() && list && list.IsSequence() && i < list.size(); ++i) {
+      const LearnerSpec& l = s.learners[i];
+      const int most = std::max(0, observed - 1);
+      if (l.method != "screen" || !list[i]["size"] || l.screening_size <= most) continue;
+      Fail(list[i]["size"], "learners[" + std::to_string(i + 1) + "].size",
+           "size " + std::to_string(l.screening_size) + " is more than the truths' " +
+               std::to_string(observed) + " observed processes allow (at most " + std::to_string(most) +
+               ", the number of processes besides the target)");
+    }
+  }
+
   void CrossChecks(const YAML::Node& root, const StudySpec& s) {
     if (errors_.empty()) CheckStationaryAtUpperEnds(root, s);
+    if (errors_.empty()) CheckScreenSizes(root, s);
     const YAML::Node truth = root["truth"];
     if (!truth || !truth.IsMap()) return;
     const int nodes = s.truth.random ? s.truth.random_graph.nodes : s.truth.explicit_graph.graph.size();

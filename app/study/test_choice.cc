@@ -1,7 +1,6 @@
 #include "app/study/test_choice.h"
 
 #include <algorithm>
-#include <fstream>
 
 #include "app/io/error.h"
 #include "learners/independence/drift_transition_test.h"
@@ -87,17 +86,6 @@ Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::stri
   Result<learners::DriftTest> made = learners::DriftTest::Create(std::move(data), *options);
   if (!made.ok()) return made.status();
   return std::unique_ptr<learners::IndependenceTest>(std::make_unique<learners::DriftTest>(std::move(made.value())));
-}
-
-bool LooksLikeEventFile(const std::string& path) {
-  std::ifstream in(path);
-  if (!in) throw Error{path, 0, 0, "", "cannot open the file"};
-  for (std::string line; std::getline(in, line);) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.empty() || line[0] == '#') continue;
-    return line == "time,process";
-  }
-  return false;
 }
 
 }  // namespace locind::app

@@ -59,8 +59,4 @@ inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
                                                                  std::vector<double> rates = {});
 
-// True when the first line that is not a '#' comment is the event header
-// "time,process". Throws Error when the file cannot be opened.
-bool LooksLikeEventFile(const std::string& path);
-
 }  // namespace locind::app

@@ -156,3 +156,58 @@ TEST_CASE("the golden projection, class and check answers agree with the brute f
 
 }  // namespace
 }  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+// The answer of check and equivalent is also the exit code (README.md,
+// "The graph engine from the command line"): 0 separated / equivalent,
+// 1 connected / not equivalent, 2 bad input or usage.
+TEST_CASE("graph check and graph equivalent exit 0 or 1 by their answer, 2 on errors") {
+  CHECK(Run({"check", kExample, "--from", "b", "--to", "a", "--given", "a,c"}).code == kExitOk);
+  CHECK(Run({"check", kExample, "--from", "c", "--to", "b", "--given", "a,b"}).code == kExitFailure);
+  CHECK(Run({"check", kExample, "--from", "q", "--to", "b"}).code == kExitInputError);
+  CHECK(Run({"equivalent", kExample, kExample}).code == kExitOk);
+  const std::string other = Scratch("answer.yaml");
+  {
+    std::ofstream f(other);
+    f << "nodes: [a, b, c]\nedges: [a -> b, c -> b]\n";
+  }
+  const Outcome r = Run({"equivalent", kExample, other});
+  CHECK(r.out == "not equivalent\n");
+  CHECK(r.code == kExitFailure);
+  CHECK(Run({"equivalent", kExample, Scratch("absent.yaml")}).code == kExitInputError);
+  std::remove(other.c_str());
+}
+
+TEST_CASE("every graph subcommand takes --help and no subcommand prints the usage (not a pointer elsewhere)") {
+  for (const char* sub : {"check", "project", "class", "equivalent", "draw"}) {
+    const Outcome r = Run({sub, "--help"});
+    CHECK(r.code == kExitOk);
+    CHECK(r.out.rfind(std::string("usage: locind graph ") + sub, 0) == 0);
+    CHECK(r.out.find('\t') == std::string::npos);
+  }
+  // --help after other arguments too.
+  CHECK(Run({"check", kExample, "--from", "a", "--help"}).code == kExitOk);
+  const Outcome none = Run({});
+  CHECK(none.code == kExitInputError);
+  CHECK(none.err.rfind("locind graph: missing SUBCOMMAND\nusage: locind graph SUBCOMMAND", 0) == 0);
+  CHECK(none.err.find("DEVELOPERS.md") == std::string::npos);
+  CHECK(none.err.find("locind graph check FILE --from A --to B") != std::string::npos);
+  const Outcome help = Run({"--help"});
+  CHECK(help.code == kExitOk);
+  CHECK(help.out == none.err.substr(none.err.find('\n') + 1));
+}
+
+TEST_CASE("a missing graph file is named as the usage writes it") {
+  Outcome r = Run({"check", "--from", "a", "--to", "b"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.rfind("locind graph check: missing FILE (a graph file)\n", 0) == 0);
+  r = Run({"equivalent", kExample});
+  CHECK(r.err.rfind("locind graph equivalent: missing FILE2 (the second graph file)\n", 0) == 0);
+  r = Run({"project", kExample, kExample});
+  CHECK(r.err.rfind("locind graph project: unexpected argument 'examples/alarm_chain.yaml'\n", 0) == 0);
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -187,3 +187,83 @@ TEST_CASE("bad input: one line, exit code 2, no output") {
 
 }  // namespace
 }  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+// 300 events of three processes with numeric ids; "003" and "3" are two ids.
+std::string NumericIdFile(const std::string& header) {
+  const auto file = std::filesystem::temp_directory_path() /
+                    ("locind_learn_ids_" + std::to_string(::getpid()) + ".csv");
+  std::ofstream out(file);
+  out << header << "\n";
+  const char* ids[] = {"17", "3", "003"};
+  for (int i = 0; i < 300; ++i) out << 0.25 + 0.5 * i << "," << ids[(i * 7) % 3] << "\n";
+  return file.string();
+}
+
+TEST_CASE("numeric process ids are ids; an unknown header needs --kind") {
+  const std::string file = NumericIdFile("time,process");
+  const Outcome o = Learn({file, "--method", "pairwise"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.rfind("nodes: [17, 3, 003]\n", 0) == 0);
+  CHECK(o.out.find("tests 9, not estimable 0") != std::string::npos);
+  const std::string unit = NumericIdFile("time,unit");
+  const Outcome refused = Learn({unit, "--method", "pairwise"});
+  CHECK(refused.code == kExitInputError);
+  CHECK(refused.err.find("'time,unit' may be an event file or a path file of one process: give --kind") !=
+        std::string::npos);
+  // --kind events: the event reader, whose error names its header.
+  const Outcome events = Learn({unit, "--method", "pairwise", "--kind", "events"});
+  CHECK(events.err == unit + ":1:1: header: expected 'time,process' (an event file; a path file has "
+                             "'time,<process ids>')\n");
+  std::filesystem::remove(file);
+}
+
+TEST_CASE("options the method does not read are refused") {
+  Outcome o = Learn({"--oracle", kExample, "--method", "pairwise", "--penalty", "2"});
+  CHECK(o.code == kExitInputError);
+  CHECK(o.err == "locind learn: --penalty is not used by method pairwise (only penalized-fit reads it); "
+                 "leave it out\n");
+  o = Learn({"--oracle", kExample, "--method", "maximal-search", "--size", "2"});
+  CHECK(o.err == "locind learn: --size is not used by method maximal-search (only screen reads it); "
+                 "leave it out\n");
+  o = Learn({"--oracle", kExample, "--method", "penalized-fit", "--level", "0.1"});
+  CHECK(o.err == "locind learn: --level is not used by method penalized-fit (it makes no tests); leave it out\n");
+  o = Learn({"--oracle", kExample, "--method", "pairwise", "--kind", "events"});
+  CHECK(o.err == "locind learn: --kind is not used by --oracle (it reads a graph file); leave it out\n");
+  // The methods that read them take them.
+  CHECK(Learn({"--oracle", kExample, "--method", "screen", "--size", "0"}).code == kExitOk);
+}
+
+TEST_CASE("--help anywhere on the line; surplus arguments named") {
+  CHECK(Learn({"--oracle", kExample, "--help"}).out.rfind("usage: locind learn", 0) == 0);
+  CHECK(Learn({"--oracle", kExample, "--help"}).out.find('\t') == std::string::npos);
+  const Outcome o = Learn({"a.csv", "b.csv", "--method", "pairwise"});
+  CHECK(o.code == kExitInputError);
+  CHECK(o.err.rfind("locind learn: unexpected argument 'b.csv'\n", 0) == 0);
+}
+
+// Not-estimable tests (too few events of a: 4 of at least 10) in the JSON
+// output: the witness text carries no p-value, never 1.
+TEST_CASE("--json: a not estimable witness has an empty p-value") {
+  const auto file = std::filesystem::temp_directory_path() /
+                    ("locind_learn_few_json_" + std::to_string(::getpid()) + ".csv");
+  {
+    std::ofstream out(file);
+    out << "time,process\n";
+    for (int i = 0; i < 40; ++i) {
+      out << 0.5 + i << ",b\n";
+      if (i % 13 == 0) out << 0.7 + i << ",a\n";
+    }
+  }
+  const Outcome o = Learn({file.string(), "--method", "pairwise", "--json"});
+  CHECK(o.code == kExitOk);
+  CHECK(o.out.find("\"a<-b|a:not estimable:\"") != std::string::npos);
+  CHECK(o.out.find("not estimable:1") == std::string::npos);
+  CHECK(o.err.find("2 of 4 tests not estimable") != std::string::npos);
+  std::filesystem::remove(file);
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -193,3 +193,57 @@ TEST_CASE("bad input: one line, exit code 2") {
 
 }  // namespace
 }  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+TEST_CASE("a missing data file is named DATA.csv; --help anywhere; --rates refused where unused") {
+  Outcome r = Run({"--target", "b", "--source", "a"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.rfind("locind test: missing DATA.csv (the data file)\n", 0) == 0);
+  CHECK(r.err.find("--data") == std::string::npos);
+  CHECK(Run({"x.csv", "--target", "b", "--help"}).out.rfind("usage: locind test", 0) == 0);
+  const Files f;
+  r = Run({f.paths, "--target", "b", "--source", "a", "--given", "b", "--rates", "1,2"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == "locind test: --rates is not used by drift-exact-lr; leave it out\n");
+}
+
+TEST_CASE("numeric process ids in --target, --source and --given") {
+  const Files f;
+  // The same draw with a and b renamed 10 and 2: the same numbers.
+  std::string text = FormatEventCsv(f.event_data);
+  text = std::regex_replace(text, std::regex("# processes: a,b"), "# processes: 10,2");
+  text = std::regex_replace(text, std::regex(",a\n"), ",10\n");
+  text = std::regex_replace(text, std::regex(",b\n"), ",2\n");
+  const std::string renamed = (f.dir / "numeric.csv").string();
+  std::ofstream(renamed) << text;
+  const Outcome named = Run({f.events, "--target", "b", "--source", "a", "--given", "b"});
+  const Outcome numeric = Run({renamed, "--target", "2", "--source", "10", "--given", "2"});
+  CHECK(numeric.err == "");
+  CHECK(numeric.code == kExitOk);
+  CHECK(numeric.out.find("p_value: ") != std::string::npos);
+  CHECK(named.out.substr(named.out.find("statistic:")) == numeric.out.substr(numeric.out.find("statistic:")));
+}
+
+}  // namespace
+}  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+TEST_CASE("bytes that are not printable UTF-8 are escaped in error lines") {
+  // An option and a file name with a Latin-1 byte and an escape character.
+  Outcome r = Run({"data.csv", "--tar\xe9", "b"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err.find("--tar\\xe9") != std::string::npos);
+  CHECK(r.err.find('\xe9') == std::string::npos);
+  // A query name typed in another encoding and a terminal escape sequence.
+  const Files f;
+  r = Run({f.events, "--target", "caf\xe9\x1b[31m", "--source", "a"});
+  CHECK(r.code == kExitInputError);
+  CHECK(r.err == f.events + ": --target: unknown process 'caf\\xe9\\x1b[31m'\n");
+}
+
+}  // namespace
+}  // namespace locind::app

@@ -18,6 +18,17 @@ TEST_CASE("an input error is one line: unknown positions are left out, control c
         "f\\n:1:1: a\\x01: unknown escape character: \\n\\t\\x00\\x1b\\x7f");
 }
 
+TEST_CASE("bytes that are not UTF-8 are escaped; well-formed UTF-8 is kept") {
+  // Well-formed sequences from the Unicode Standard, chapter 3, table 3-7:
+  // "\xc3\xa9" is U+00E9, "\xe2\x82\xac" U+20AC, "\xf0\x9f\x98\x80" U+1F600.
+  CHECK(Error{"d.csv", 2, 1, "process", "caf\xc3\xa9 \xe2\x82\xac \xf0\x9f\x98\x80"}.ToString() ==
+        "d.csv:2:1: process: caf\xc3\xa9 \xe2\x82\xac \xf0\x9f\x98\x80");
+  // Latin-1 "caf\xe9", a lone continuation byte, an overlong "\xc0\xaf", a
+  // surrogate "\xed\xa0\x80" and a sequence cut short at the end.
+  CHECK(Error{"d.csv", 2, 1, "", "caf\xe9 \x80 \xc0\xaf \xed\xa0\x80 \xe2\x82"}.ToString() ==
+        "d.csv:2: caf\\xe9 \\x80 \\xc0\\xaf \\xed\\xa0\\x80 \\xe2\\x82");
+}
+
 TEST_CASE("a reader lists at most kMaxErrors problems, then says it stopped") {
   Errors errors;
   for (size_t i = 1; i < kMaxErrors; ++i) {

@@ -51,7 +51,8 @@ TEST_CASE("event file without metadata: names in order of appearance") {
 TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("") == "ev.csv:1:1: header: empty file");
   CHECK(ErrorOf("# window: 0,1\n") == "ev.csv:2:1: header: missing 'time,process'");
-  CHECK(ErrorOf("t,p\n") == "ev.csv:1:1: header: expected 'time,process'");
+  CHECK(ErrorOf("t,p\n") ==
+        "ev.csv:1:1: header: expected 'time,process' (an event file; a path file has 'time,<process ids>')");
   CHECK(ErrorOf("time,process\n1,a\n0.5,a\n") ==
         "ev.csv:3:1: time: events must be sorted by time (0.5 comes after 1)");
   CHECK(ErrorOf("time,process\nnan,a\n") == "ev.csv:2:1: time: expected a finite number");
@@ -64,7 +65,9 @@ TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("# processes: a, a\n") == "ev.csv:1:17: processes: duplicate process 'a'");
   CHECK(ErrorOf("# window: 0,1\ntime,process\n2,a\n") == "ev.csv:3:1: time: outside the window");
   CHECK(ErrorOf("# window: 2,1\n") == "ev.csv:1:10: window: start must be before end");
-  CHECK(ErrorOf("time,process\n1,9x\n") == "ev.csv:2:3: process: expected a process name");
+  CHECK(ErrorOf("time,process\n1,a b\n") ==
+        "ev.csv:2:3: process: expected a process id (a process id is any token without spaces, "
+        "commas, semicolons, '\"' or '\\', not starting with '#')");
   CHECK(ErrorOf("# processes: a\n# processes: b\n") == "ev.csv:2:1: processes: given twice");
   CHECK(ErrorOf("# window: 0,1\n# window: 0,2\n") == "ev.csv:2:1: window: given twice");
   CHECK(ErrorOf("# window: 0,1e999\n") == "ev.csv:1:13: window: expected a finite number");

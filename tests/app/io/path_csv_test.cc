@@ -36,7 +36,8 @@ TEST_CASE("path file: golden text and round trip") {
 
 TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("") == "p.csv:1:1: header: empty file");
-  CHECK(ErrorOf("t,x\n") == "p.csv:1:1: header: expected 'time' as the first column");
+  CHECK(ErrorOf("t,x\n") ==
+        "p.csv:1:1: header: expected 'time,<process ids>' (a path file; an event file has 'time,process')");
   CHECK(ErrorOf("time\n") == "p.csv:1:1: header: expected at least one process column");
   CHECK(ErrorOf("time,x,x\n") == "p.csv:1:8: header: duplicate process 'x'");
   CHECK(ErrorOf("time,x\n") == "p.csv:2:1: no samples after the header");
@@ -47,8 +48,11 @@ TEST_CASE("path file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("time,x\n0,1e999\n") == "p.csv:2:3: x: expected a finite number");
   CHECK(ErrorOf("time,x\n0,nan\n") == "p.csv:2:3: x: expected a finite number");
   CHECK(ErrorOf("time,x\n-inf,1\n") == "p.csv:2:1: time: expected a finite number");
-  CHECK(ErrorOf("time,1x\n") == "p.csv:1:6: header: expected a process name");
-  CHECK(ErrorOf("\n") == "p.csv:1:1: header: expected 'time' as the first column");
+  CHECK(ErrorOf("time,a;b\n") ==
+        "p.csv:1:6: header: expected a process id (a process id is any token without spaces, "
+        "commas, semicolons, '\"' or '\\', not starting with '#')");
+  CHECK(ErrorOf("\n") ==
+        "p.csv:1:1: header: expected 'time,<process ids>' (a path file; an event file has 'time,process')");
 }
 
 TEST_CASE("path file: every bad row is reported, and huge finite values are values") {

@@ -146,8 +146,21 @@ TEST_CASE("a second run into a folder in use is refused, and so is another study
     CHECK(text.find("another run is writing into " + s.Path("busy")) != std::string::npos);
   }
   std::string text;
-  CHECK(Run({study, "--out", s.Path("busy")}, &text) == kExitFailure);  // lock free, study differs
-  CHECK(text.find("belongs to another study or part") != std::string::npos);
+  CHECK(Run({study, "--out", s.Path("busy")}, &text) == kExitInputError);  // lock free, study differs
+  CHECK(text == "locind run: " + s.Path("busy") + " holds the results of another study, or of another "
+                "version of this study file; give another --out, or delete " + s.Path("busy") +
+                " to start this study afresh\n");
+  CHECK(text.find("finished units") == std::string::npos);
+}
+
+TEST_CASE("a folder of another share of the same study says so and points at merge") {
+  Scratch s("locind_runner_test_share");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  REQUIRE(Run({study, "--part", "1/2", "--out", s.Path("p")}) == kExitOk);
+  std::string text;
+  CHECK(Run({study, "--part", "2/2", "--out", s.Path("p")}, &text) == kExitInputError);
+  CHECK(text == "locind run: " + s.Path("p") + " holds another share of this study (part 1/2, not part "
+                "2/2); run this share with another --out and join the folders with locind merge\n");
 }
 
 TEST_CASE("a replicate whose simulation fails is a row with status and message") {

@@ -115,7 +115,7 @@ TEST_CASE("memory_mb: the study refusal and the event cap of a replicate") {
   const Costed c = Cost(big);
   // 2.5 x (1e6 + 10) events x 64 bytes = 152.6 MiB.
   const std::string problem = MemoryProblem(c.study, c.cost);
-  CHECK(problem.find("cell 2 (") == 0);
+  CHECK(problem.find("cell 1 (") == 0);  // numbered from 0, as the cell column of the CSV files
   CHECK(problem.find(") needs about 153 MB per replicate, more than memory_mb: 16; shorten the "
                      "lengths or raise memory_mb") != std::string::npos);
   // 16 MiB / 64 bytes per event; a smaller event_cap wins.
@@ -135,6 +135,11 @@ TEST_CASE("locind run --check prints the work and writes nothing, and too much m
   testing::Outcome r = testing::RunHandler(RunRunCommand, {study, "--check", "--out", out});
   CHECK(r.code == kExitOk);
   CHECK(r.out.find("study costly: 1 truth(s), 2 cell(s)") == 0);
+  // Cells numbered from 0, as the cell column of replicates.csv and the
+  // other CSV files (one numbering everywhere).
+  CHECK(r.out.find("\n  cell 0 (") != std::string::npos);
+  CHECK(r.out.find("\n  cell 1 (") != std::string::npos);
+  CHECK(r.out.find("\n  cell 2 (") == std::string::npos);
   CHECK_FALSE(fs::exists(out));
 
   std::string big = kEvents;
@@ -142,7 +147,7 @@ TEST_CASE("locind run --check prints the work and writes nothing, and too much m
   std::ofstream(study) << big + "memory_mb: 16\n";
   r = testing::RunHandler(RunRunCommand, {study, "--out", out});
   CHECK(r.code == kExitInputError);
-  CHECK(r.err.find(study + ": memory_mb: cell 2 (") == 0);
+  CHECK(r.err.find(study + ": memory_mb: cell 1 (") == 0);
   CHECK_FALSE(fs::exists(out));
   fs::remove_all(dir);
 }

@@ -277,3 +277,34 @@ TEST_CASE("hidden_mode fixed-observed counts random.nodes as observed and needs 
 
 }  // namespace
 }  // namespace locind::app
+
+namespace locind::app {
+namespace {
+
+// screen's size counts processes besides the target: n observed processes
+// leave n - 1 (learners/methods/screening_learner.h).
+TEST_CASE("screen sizes are checked against the observed process count") {
+  const std::string head =
+      "seed: 1\n"
+      "truth: {nodes: [a, b, c, d, e, h], edges: [a -> b], hidden: [h]}\n"
+      "process: {events: {baseline: 0.5, weight: 0.3, loop_weight: 0.2, decay: 2}}\n"
+      "grid: {lengths: [100], replicates: 1}\n";
+  const auto m = Messages(ParseStudyText(head + "learners: [{method: screen, test: oracle, size: 9}]\n", "s.yaml"));
+  REQUIRE(m.size() == 1);
+  CHECK(m[0] == "s.yaml:5:49: learners[1].size: size 9 is more than the truths' 5 observed processes allow "
+                "(at most 4, the number of processes besides the target)");
+  CHECK(Messages(ParseStudyText(head + "learners: [{method: screen, test: oracle, size: 4}]\n", "s.yaml")).empty());
+  // Random truths: the fewest observed over the hidden-count factor (6 - 3).
+  const std::string random =
+      "seed: 1\n"
+      "truth: {random: {nodes: 6, edge_probability: 0.3}}\n"
+      "process: {events: {baseline: 0.5, weight: 0.3, loop_weight: 0.2, decay: 2, spectral_radius: 0.5}}\n"
+      "grid: {lengths: [100], replicates: 1, hidden: [0, 3]}\n";
+  const auto r = Messages(ParseStudyText(random + "learners: [{method: screen, test: oracle, size: 3}]\n", "r.yaml"));
+  REQUIRE(r.size() == 1);
+  CHECK(r[0].find("learners[1].size: size 3 is more than the truths' 3 observed processes allow (at most 2") !=
+        std::string::npos);
+}
+
+}  // namespace
+}  // namespace locind::app
