@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 #include <string>
 
 #include "base/random_stream.h"
@@ -82,18 +83,45 @@ HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int
 
 namespace {
 
+// Buffers of the linear objective, kept across its calls: the event design
+// has about 1e4-1e5 rows, and allocating the n x p matrix `scaled` on every
+// Hessian cost more than the arithmetic (each fresh block of a few MB is
+// mapped and page-faulted anew). The results are those of the plain
+// expressions, bit for bit: the same Eigen operations run on the same
+// operands, only into kept storage. `eta` caches z * x for the last x
+// evaluated (the projected Newton routine asks for the derivatives at the
+// point whose value it has just accepted).
+struct LinearWorkspace {
+  Eigen::VectorXd last_x;
+  Eigen::ArrayXd eta;      // z * last_x
+  Eigen::ArrayXd inverse;  // 1 / eta
+  Eigen::MatrixXd scaled;  // z scaled row-wise by 1 / eta
+  bool has_eta = false;
+
+  const Eigen::ArrayXd& Eta(const Eigen::MatrixXd& z, const Eigen::VectorXd& x) {
+    if (has_eta && last_x.size() == x.size() && last_x == x) return eta;
+    eta.resize(z.rows());
+    eta.matrix().noalias() = z * x;
+    last_x = x;
+    has_eta = true;
+    return eta;
+  }
+};
+
 ConcaveObjective LinearObjective(const Eigen::MatrixXd& z, const Eigen::VectorXd& integrals) {
   ConcaveObjective f;
-  f.value = [&](const Eigen::VectorXd& x) {
-    const Eigen::ArrayXd lambda = (z * x).array();
+  auto work = std::make_shared<LinearWorkspace>();
+  f.value = [&, work](const Eigen::VectorXd& x) {
+    const Eigen::ArrayXd& lambda = work->Eta(z, x);
     if (lambda.size() > 0 && lambda.minCoeff() <= 0) return kMinusInfinity;
     return lambda.log().sum() - integrals.dot(x);
   };
-  f.derivatives = [&](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
-    const Eigen::ArrayXd inverse = (z * x).array().inverse();
-    g = z.transpose() * inverse.matrix() - integrals;
-    const Eigen::MatrixXd scaled = z.array().colwise() * inverse;
-    h = -(scaled.transpose() * scaled);
+  f.derivatives = [&, work](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
+    work->inverse = work->Eta(z, x).inverse();
+    g = z.transpose() * work->inverse.matrix() - integrals;
+    work->scaled.resize(z.rows(), z.cols());
+    work->scaled.array() = z.array().colwise() * work->inverse;
+    h = -(work->scaled.transpose() * work->scaled);
   };
   return f;
 }
@@ -195,6 +223,13 @@ HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
   return HawkesFit{r.x, r.value, r.iterations, r.converged};
 }
 
+const HawkesFit& HawkesLrTest::RestrictedFit(int target, const std::vector<int>& given) {
+  const auto key = std::make_pair(target, given);
+  auto it = restricted_fits_.find(key);
+  if (it == restricted_fits_.end()) it = restricted_fits_.emplace(key, Fit(target, given)).first;
+  return it->second;
+}
+
 TestResult HawkesLrTest::Run(const TestQuery& query) {
   const auto key = std::make_tuple(query.target, query.sources, query.given);
   auto it = cache_.find(key);
@@ -243,7 +278,7 @@ TestResult HawkesLrTest::Compute(const TestQuery& q) {
       return NotEstimable("singular design: the history features are collinear");
     }
   }
-  const HawkesFit restricted = Fit(q.target, q.given);
+  const HawkesFit& restricted = RestrictedFit(q.target, q.given);
   if (!restricted.converged) {
     return NotEstimable("failed fit: the restricted model did not converge in " +
                         std::to_string(restricted.iterations) + " iterations");

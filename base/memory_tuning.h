@@ -1,0 +1,19 @@
+// KeepFreedMemory: tells the C library's allocator to keep freed blocks of up
+// to 32 MiB in its heap for reuse instead of returning them to the system.
+//
+// Why: the likelihood fits allocate and free n x p matrices of a few MB many
+// times per test. glibc serves blocks above its mmap threshold with fresh
+// mappings, and trims the heap top on free, so every such block was
+// page-faulted anew; on the shared (virtualised) build machine that cost more
+// than the arithmetic (bench/learners_tests_bench.cc). Numbers are unchanged:
+// only where memory comes from changes.
+#pragma once
+
+namespace locind::base {
+
+// Sets the mmap threshold to 32 MiB (glibc's largest) and the trim threshold
+// to 256 MiB. Call once at program start, before threads start. A no-op when
+// the C library is not glibc. Process-wide; idempotent.
+void KeepFreedMemory();
+
+}  // namespace locind::base
