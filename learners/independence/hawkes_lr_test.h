@@ -103,8 +103,14 @@ class HawkesLrTest : public IndependenceTest {
   struct Design;
   Design BuildDesign(int target, const std::vector<int>& covariates);
   TestResult Compute(const TestQuery& query);
+  // Fit with, for the linear link, the Hessian at the (projected) start
+  // copied into `hessian_at_start` (the first one the Newton loop computes).
+  HawkesFit FitWithHessianHook(int target, const std::vector<int>& covariates,
+                               const Eigen::VectorXd* start, Eigen::MatrixXd* hessian_at_start);
+  HawkesFit FitKeepingStartHessian(int target, const std::vector<int>& covariates,
+                                   const Eigen::VectorXd& start, Eigen::MatrixXd& hessian_at_start);
   double PValue(const TestQuery& query, const std::vector<int>& full, const HawkesFit& restricted,
-                double statistic, double df);
+                const Eigen::MatrixXd& hessian_at_restricted, double statistic, double df);
 
   std::shared_ptr<HawkesFeatures> features_;
   HawkesTestOptions options_;
