@@ -11,4 +11,8 @@ namespace locind::base {
 // (std::to_chars round-trip form), e.g. 0.1 -> "0.1", 1e-20 -> "1e-20".
 std::string FormatNumber(double value);
 
+// Appends FormatNumber(value) to `out` without a temporary string (the
+// writers of large data files call it once per number).
+void AppendNumber(std::string& out, double value);
+
 }  // namespace locind::base

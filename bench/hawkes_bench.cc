@@ -16,6 +16,7 @@
 
 #include <boost/random/exponential_distribution.hpp>
 
+#include "base/memory_tuning.h"
 #include "graph/truth_graph.h"
 #include "sim/hawkes_simulator.h"
 
@@ -56,6 +57,7 @@ double RngOnly(int64_t proposals, base::RandomStream& random) {
 }
 
 void BM_HawkesThinning(benchmark::State& state) {
+  base::KeepFreedMemory();  // as locind's main() does
   const int n = static_cast<int>(state.range(0));
   const sim::HawkesModel model = SparseModel(n);
   sim::HawkesRunStats stats;

@@ -14,6 +14,7 @@
 #include <filesystem>
 
 #include "app/running/runner.h"
+#include "base/memory_tuning.h"
 #include "app/study/study_truths.h"
 #include "app/study/study_file.h"
 #include "app/study/study_grid.h"
@@ -53,6 +54,7 @@ double RunCell(const app::StudySpec& study, const app::Cell& cell, const app::St
 }
 
 void BM_DemoCellScaling(benchmark::State& state) {
+  base::KeepFreedMemory();  // as locind's main() does, before any thread starts
   app::StudyOrErrors read = app::ReadStudyFile(FindDemo());
   if (!std::holds_alternative<app::StudySpec>(read)) {
     state.SkipWithError("configs/demo.yaml not found or invalid");

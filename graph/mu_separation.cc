@@ -49,6 +49,58 @@ Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
   return reach;
 }
 
+bool ReachGrows(const BitGraph& g, Mask c, Mask ancestors_of_c, const Reach& reach, Mask seed_head,
+                Mask seed_tail) {
+  (void)ancestors_of_c;  // only moves out of tail states remain, and they ignore An(C)
+  if ((seed_head & ~reach.head) != 0) return true;
+  Mask tail = reach.tail;
+  Mask frontier = seed_tail & ~tail;
+  tail |= frontier;
+  while (frontier != 0) {
+    const int v = std::countr_zero(frontier);
+    frontier &= frontier - 1;
+    // Arrived with a tail: a non-collider, blocked in C, otherwise free to go on.
+    if (Contains(c, v)) continue;
+    if (((g.children[v] | g.siblings[v]) & ~reach.head) != 0) return true;
+    const Mask fresh = g.parents[v] & ~tail;
+    tail |= fresh;
+    frontier |= fresh;
+  }
+  return false;
+}
+
+bool ReachesExactly(const BitGraph& g, int a, Mask c, Mask ancestors_of_c, Mask heads) {
+  if (Contains(c, a)) return heads == 0;
+  Reach reach;
+  Mask frontier_head = 0;
+  Mask frontier_tail = 0;
+  auto arrive = [&](Mask new_heads, Mask new_tails) {
+    new_heads &= ~reach.head;
+    new_tails &= ~reach.tail;
+    reach.head |= new_heads;
+    reach.tail |= new_tails;
+    frontier_head |= new_heads;
+    frontier_tail |= new_tails;
+  };
+  // The same search as Explore, with an exit once all of `heads` is reached
+  // (the caller knows the result cannot exceed it).
+  arrive(g.children[a] | g.siblings[a], g.parents[a]);
+  while ((frontier_head | frontier_tail) != 0) {
+    if ((reach.head & heads) == heads) return (reach.head & ~heads) == 0;
+    if (frontier_tail != 0) {
+      const int v = std::countr_zero(frontier_tail);
+      frontier_tail &= frontier_tail - 1;
+      if (!Contains(c, v)) arrive(g.children[v] | g.siblings[v], g.parents[v]);
+      continue;
+    }
+    const int v = std::countr_zero(frontier_head);
+    frontier_head &= frontier_head - 1;
+    if (!Contains(c, v)) arrive(g.children[v], 0);
+    if (Contains(ancestors_of_c, v)) arrive(g.siblings[v], g.parents[v]);
+  }
+  return reach.head == heads;
+}
+
 Mask ConnectedFrom(const BitGraph& g, int a, Mask c) {
   return Explore(g, a, c, Ancestors(g, c)).head;
 }

@@ -27,6 +27,22 @@ struct Reach {
 // REQUIRES: ancestors_of_c == Ancestors(g, c).
 Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c);
 
+// Incremental forms for a graph that differs from the searched one by edges
+// added (connections only grow: every walk stays a walk and An(C) can only
+// grow). `reach` is Explore's result on the smaller graph, `seed_head` and
+// `seed_tail` the states that the new moves enter from reach's states (via
+// an added edge, or a collider that joined An(C)). True when the search in
+// g, continued from there, reaches some node with an arrowhead that reach
+// did not: only new tail states need expanding, since any new head state is
+// already a difference. REQUIRES: ancestors_of_c == Ancestors(g, c).
+bool ReachGrows(const BitGraph& g, Mask c, Mask ancestors_of_c, const Reach& reach, Mask seed_head,
+                Mask seed_tail);
+
+// Explore(g, a, c, ancestors_of_c).head == heads, for a graph g whose
+// connections can only be fewer than `heads` (an edge removed): the search
+// stops as soon as every node of `heads` is reached.
+bool ReachesExactly(const BitGraph& g, int a, Mask c, Mask ancestors_of_c, Mask heads);
+
 // The set of b that are mu-connected from a given C (b not separated).
 Mask ConnectedFrom(const BitGraph& g, int a, Mask c);
 

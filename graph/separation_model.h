@@ -33,7 +33,11 @@ class SeparationModel {
 
   // True when `changed` (the modelled graph plus or minus `edge`) has exactly
   // the separations of the modelled graph. Only (a, C) whose search could
-  // traverse `edge`, or whose ancestor set moved, are searched again.
+  // traverse `edge`, or whose ancestor set moved, are searched again: an
+  // added edge continues the stored search from the states that can step
+  // onto the edge (ReachGrows), a removed edge re-runs it until it has
+  // reached the stored heads (ReachesExactly). An(C) of the changed graph
+  // is recomputed only where the edge lies on a directed path into C.
   // REQUIRES: this model was computed from a graph differing from `changed`
   // in `edge` alone.
   bool SameAfterChange(const BitGraph& changed, const Edge& edge) const;
@@ -42,6 +46,8 @@ class SeparationModel {
   SeparationModel(int n) : n_(n) {}
   size_t Index(int a, Mask c) const { return static_cast<size_t>(c) * n_ + a; }
   bool MayTraverse(int a, Mask c, const Edge& edge) const;
+  bool SameAfterAdding(const BitGraph& changed, const Edge& edge) const;
+  bool SameAfterRemoving(const BitGraph& changed, const Edge& edge) const;
 
   int n_ = 0;
   std::vector<Mask> head_;       // Reach::head per (C, a)

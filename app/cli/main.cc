@@ -8,6 +8,7 @@
 #include "app/cli/options.h"
 #include "app/cli/version.h"
 #include "app/io/error.h"
+#include "base/memory_tuning.h"
 
 namespace {
 
@@ -37,6 +38,7 @@ void PrintUsage(std::ostream& out) {
 }  // namespace
 
 int main(int argc, char** argv) {
+  locind::base::KeepFreedMemory();  // reuse freed fit matrices (base/memory_tuning.h)
   if (argc < 2 || std::string(argv[1]) == "--help" || std::string(argv[1]) == "-h") {
     PrintUsage(argc < 2 ? std::cerr : std::cout);
     return argc < 2 ? locind::app::kExitInputError : locind::app::kExitOk;

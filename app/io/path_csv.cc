@@ -69,21 +69,29 @@ std::optional<Error> ReadRow(const std::string& text, int line, const std::strin
 
 }  // namespace
 
-void WritePathCsv(const sim::PathData& data, std::ostream& out) {
-  out << "time";
-  for (const std::string& name : data.names) out << ',' << name;
-  out << '\n';
+// One reserved string filled through to_chars (base::AppendNumber): no
+// stream and no temporary string per number.
+std::string FormatPathCsv(const sim::PathData& data) {
+  std::string out;
+  out.reserve(64 + 32 * data.names.size() +
+              size_t(data.samples()) * (size_t(data.processes()) + 1) * 25);
+  out.append("time");
+  for (const std::string& name : data.names) out.append(",").append(name);
+  out.push_back('\n');
   for (int k = 0; k < data.samples(); ++k) {
-    out << base::FormatNumber(data.time[k]);
-    for (int j = 0; j < data.processes(); ++j) out << ',' << base::FormatNumber(data.values(k, j));
-    out << '\n';
+    base::AppendNumber(out, data.time[k]);
+    for (int j = 0; j < data.processes(); ++j) {
+      out.push_back(',');
+      base::AppendNumber(out, data.values(k, j));
+    }
+    out.push_back('\n');
   }
+  return out;
 }
 
-std::string FormatPathCsv(const sim::PathData& data) {
-  std::ostringstream out;
-  WritePathCsv(data, out);
-  return out.str();
+void WritePathCsv(const sim::PathData& data, std::ostream& out) {
+  const std::string text = FormatPathCsv(data);
+  out.write(text.data(), std::streamsize(text.size()));
 }
 
 PathsOrError ReadPathCsv(std::istream& in, const std::string& file) {

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 #include <string>
 
 #include "base/random_stream.h"
@@ -82,18 +83,45 @@ HawkesLrTest::Design HawkesLrTest::BuildDesign(int target, const std::vector<int
 
 namespace {
 
+// Buffers of the linear objective, kept across its calls: the event design
+// has about 1e4-1e5 rows, and allocating the n x p matrix `scaled` on every
+// Hessian cost more than the arithmetic (each fresh block of a few MB is
+// mapped and page-faulted anew). The results are those of the plain
+// expressions, bit for bit: the same Eigen operations run on the same
+// operands, only into kept storage. `eta` caches z * x for the last x
+// evaluated (the projected Newton routine asks for the derivatives at the
+// point whose value it has just accepted).
+struct LinearWorkspace {
+  Eigen::VectorXd last_x;
+  Eigen::ArrayXd eta;      // z * last_x
+  Eigen::ArrayXd inverse;  // 1 / eta
+  Eigen::MatrixXd scaled;  // z scaled row-wise by 1 / eta
+  bool has_eta = false;
+
+  const Eigen::ArrayXd& Eta(const Eigen::MatrixXd& z, const Eigen::VectorXd& x) {
+    if (has_eta && last_x.size() == x.size() && last_x == x) return eta;
+    eta.resize(z.rows());
+    eta.matrix().noalias() = z * x;
+    last_x = x;
+    has_eta = true;
+    return eta;
+  }
+};
+
 ConcaveObjective LinearObjective(const Eigen::MatrixXd& z, const Eigen::VectorXd& integrals) {
   ConcaveObjective f;
-  f.value = [&](const Eigen::VectorXd& x) {
-    const Eigen::ArrayXd lambda = (z * x).array();
+  auto work = std::make_shared<LinearWorkspace>();
+  f.value = [&, work](const Eigen::VectorXd& x) {
+    const Eigen::ArrayXd& lambda = work->Eta(z, x);
     if (lambda.size() > 0 && lambda.minCoeff() <= 0) return kMinusInfinity;
     return lambda.log().sum() - integrals.dot(x);
   };
-  f.derivatives = [&](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
-    const Eigen::ArrayXd inverse = (z * x).array().inverse();
-    g = z.transpose() * inverse.matrix() - integrals;
-    const Eigen::MatrixXd scaled = z.array().colwise() * inverse;
-    h = -(scaled.transpose() * scaled);
+  f.derivatives = [&, work](const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) {
+    work->inverse = work->Eta(z, x).inverse();
+    g = z.transpose() * work->inverse.matrix() - integrals;
+    work->scaled.resize(z.rows(), z.cols());
+    work->scaled.array() = z.array().colwise() * work->inverse;
+    h = -(work->scaled.transpose() * work->scaled);
   };
   return f;
 }
@@ -176,6 +204,18 @@ ConcaveObjective SoftplusObjective(const Eigen::MatrixXd& z, const Eigen::Vector
 
 HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
                             const Eigen::VectorXd* start) {
+  return FitWithHessianHook(target, covariates, start, nullptr);
+}
+
+HawkesFit HawkesLrTest::FitKeepingStartHessian(int target, const std::vector<int>& covariates,
+                                               const Eigen::VectorXd& start,
+                                               Eigen::MatrixXd& hessian_at_start) {
+  return FitWithHessianHook(target, covariates, &start, &hessian_at_start);
+}
+
+HawkesFit HawkesLrTest::FitWithHessianHook(int target, const std::vector<int>& covariates,
+                                           const Eigen::VectorXd* start,
+                                           Eigen::MatrixXd* hessian_at_start) {
   const Design d = BuildDesign(target, covariates);
   const double rate = std::max<double>(double(d.z.rows()), 1.0) / features_->data().duration();
   Eigen::VectorXd x0 = Eigen::VectorXd::Zero(d.z.cols());
@@ -184,7 +224,18 @@ HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
   if (options_.link == HawkesLink::kLinear) {
     x0[0] = rate;
     if (start) x0 = *start;
-    r = MaximizeConcave(LinearObjective(d.z, d.integrals), x0, lower);
+    ConcaveObjective f = LinearObjective(d.z, d.integrals);
+    if (hessian_at_start != nullptr) {
+      // The Newton loop's first derivatives are taken at the projected
+      // start; keep that Hessian (the p-value needs exactly it).
+      f.derivatives = [inner = f.derivatives, hessian_at_start, first = true](
+                          const Eigen::VectorXd& x, Eigen::VectorXd& g, Eigen::MatrixXd& h) mutable {
+        inner(x, g, h);
+        if (first) *hessian_at_start = h;
+        first = false;
+      };
+    }
+    r = MaximizeConcave(f, x0, lower);
   } else {
     // eta such that s * softplus(eta / s) equals the mean rate.
     x0[0] = d.scale * std::log(std::expm1(rate / d.scale));
@@ -193,6 +244,13 @@ HawkesFit HawkesLrTest::Fit(int target, const std::vector<int>& covariates,
     r = MaximizeConcave(SoftplusObjective(d.z, d.integrals, d.grid, d.grid_weights, d.scale), x0, lower);
   }
   return HawkesFit{r.x, r.value, r.iterations, r.converged};
+}
+
+const HawkesFit& HawkesLrTest::RestrictedFit(int target, const std::vector<int>& given) {
+  const auto key = std::make_pair(target, given);
+  auto it = restricted_fits_.find(key);
+  if (it == restricted_fits_.end()) it = restricted_fits_.emplace(key, Fit(target, given)).first;
+  return it->second;
 }
 
 TestResult HawkesLrTest::Run(const TestQuery& query) {
@@ -243,7 +301,7 @@ TestResult HawkesLrTest::Compute(const TestQuery& q) {
       return NotEstimable("singular design: the history features are collinear");
     }
   }
-  const HawkesFit restricted = Fit(q.target, q.given);
+  const HawkesFit& restricted = RestrictedFit(q.target, q.given);
   if (!restricted.converged) {
     return NotEstimable("failed fit: the restricted model did not converge in " +
                         std::to_string(restricted.iterations) + " iterations");
@@ -257,7 +315,12 @@ TestResult HawkesLrTest::Compute(const TestQuery& q) {
     start.segment(1 + pos * k_count, k_count) =
         restricted.parameters.segment(1 + Eigen::Index(c) * k_count, k_count);
   }
-  const HawkesFit full_fit = Fit(q.target, full, &start);
+  // The chi-bar-squared weights need the information at the restricted
+  // estimate embedded in the full model, which is `start` itself (restricted
+  // estimates are >= 0, so projecting it changes nothing): the full fit's
+  // first Hessian, bit for bit what a separate evaluation would give.
+  Eigen::MatrixXd hessian_at_restricted;
+  const HawkesFit full_fit = FitKeepingStartHessian(q.target, full, start, hessian_at_restricted);
   if (!full_fit.converged) {
     return NotEstimable("failed fit: the full model did not converge in " +
                         std::to_string(full_fit.iterations) + " iterations");
@@ -265,20 +328,21 @@ TestResult HawkesLrTest::Compute(const TestQuery& q) {
   TestResult r;
   r.statistic = std::max(0.0, 2 * (full_fit.log_likelihood - restricted.log_likelihood));
   r.df = double(q.sources.size()) * k_count;
-  r.p_value = PValue(q, full, restricted, r.statistic, r.df);
+  r.p_value = PValue(q, full, restricted, hessian_at_restricted, r.statistic, r.df);
   return r;
 }
 
 double HawkesLrTest::PValue(const TestQuery& q, const std::vector<int>& full,
-                            const HawkesFit& restricted, double statistic, double df) {
+                            const HawkesFit& restricted, const Eigen::MatrixXd& h,
+                            double statistic, double df) {
   if (options_.link != HawkesLink::kLinear || options_.boundary != BoundaryReference::kChiBarSquared) {
     return ChiSquaredSurvival(df, statistic);
   }
   if (statistic <= 0) return 1;
-  // Observed information at the restricted estimate, embedded in the full model.
+  // Observed information at the restricted estimate, embedded in the full
+  // model: -h, kept by the full fit (Compute).
   const int k_count = features_->basis_size();
-  const Design d = BuildDesign(q.target, full);
-  Eigen::VectorXd x = Eigen::VectorXd::Zero(d.z.cols());
+  Eigen::VectorXd x = Eigen::VectorXd::Zero(h.rows());
   x[0] = restricted.parameters[0];
   std::vector<int> kept;  // coordinates treated as free: mu, positive theta_C, all theta_A
   std::vector<int> tested;
@@ -297,9 +361,6 @@ double HawkesLrTest::PValue(const TestQuery& q, const std::vector<int>& full,
       }
     }
   }
-  Eigen::VectorXd g;
-  Eigen::MatrixXd h;
-  LinearObjective(d.z, d.integrals).derivatives(x, g, h);
   Eigen::MatrixXd info(kept.size(), kept.size());
   for (size_t i = 0; i < kept.size(); ++i) {
     for (size_t j = 0; j < kept.size(); ++j) info(i, j) = -h(kept[i], kept[j]);

@@ -47,7 +47,8 @@
 // Not estimable: fewer than `min_target_events` target events ("too few
 // events"), a source with no events in the window or, for the signed model, a
 // rank-deficient event design [1, x(t_i)] ("singular design"), a fit that does not converge
-// ("failed fit"). Results are cached by (b, A, C). Not thread-safe.
+// ("failed fit"). Results are cached by (b, A, C), restricted fits by (b, C).
+// Not thread-safe.
 #pragma once
 
 #include <map>
@@ -94,18 +95,30 @@ class HawkesLrTest : public IndependenceTest {
                 const Eigen::VectorXd* start = nullptr);
 
   size_t distinct_queries() const { return cache_.size(); }
+  // Restricted fits (b, C) made so far; queries sharing (b, C) share one.
+  size_t restricted_fits() const { return restricted_fits_.size(); }
   const HawkesFeatures& features() const { return *features_; }
 
  private:
   struct Design;
   Design BuildDesign(int target, const std::vector<int>& covariates);
   TestResult Compute(const TestQuery& query);
+  // Fit with, for the linear link, the Hessian at the (projected) start
+  // copied into `hessian_at_start` (the first one the Newton loop computes).
+  HawkesFit FitWithHessianHook(int target, const std::vector<int>& covariates,
+                               const Eigen::VectorXd* start, Eigen::MatrixXd* hessian_at_start);
+  HawkesFit FitKeepingStartHessian(int target, const std::vector<int>& covariates,
+                                   const Eigen::VectorXd& start, Eigen::MatrixXd& hessian_at_start);
   double PValue(const TestQuery& query, const std::vector<int>& full, const HawkesFit& restricted,
-                double statistic, double df);
+                const Eigen::MatrixXd& hessian_at_restricted, double statistic, double df);
 
   std::shared_ptr<HawkesFeatures> features_;
   HawkesTestOptions options_;
   std::map<std::tuple<int, std::vector<int>, std::vector<int>>, TestResult> cache_;
+  // The restricted fit depends on (b, C) only and always starts at the same
+  // point, so it is made once per (b, C): the same numbers, fewer fits.
+  const HawkesFit& RestrictedFit(int target, const std::vector<int>& given);
+  std::map<std::pair<int, std::vector<int>>, HawkesFit> restricted_fits_;
 };
 
 }  // namespace locind::learners

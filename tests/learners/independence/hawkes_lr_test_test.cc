@@ -140,6 +140,24 @@ TEST_CASE("results are cached and features shared between tests") {
   CHECK(again.status == TestStatus::kOk);
 }
 
+TEST_CASE("queries sharing (b, C) share one restricted fit with unchanged results") {
+  // Three queries with b = 1, C = {} and different A: one restricted fit, and
+  // each result bit for bit that of a fresh test asked only that query.
+  sim::EventData d = Draw(0.3, 400, 7);
+  auto features = Features(d);
+  HawkesLrTest shared(features);
+  const std::vector<TestQuery> queries = {{1, {0}, {}}, {1, {1}, {}}, {1, {0, 1}, {}}};
+  for (const TestQuery& q : queries) {
+    const TestResult together = shared.Run(q);
+    const TestResult alone = HawkesLrTest(features).Run(q);
+    REQUIRE(together.status == TestStatus::kOk);
+    CHECK(together.statistic == alone.statistic);
+    CHECK(together.p_value == alone.p_value);
+  }
+  CHECK(shared.distinct_queries() == 3);
+  CHECK(shared.restricted_fits() == 1);
+}
+
 TEST_CASE("inhibition is found by the signed model only") {
   // a inhibits b under the simulator's softplus link; the linear model
   // (theta >= 0) cannot express it, the signed model can.
