@@ -10,32 +10,117 @@
 namespace locind::learners {
 namespace {
 
-// Columns of the features of `processes` (K per process) at the grid nodes,
-// after a leading column of ones when `intercept`.
-Eigen::MatrixXd GridColumns(HawkesFeatures& f, const std::vector<int>& processes, bool intercept) {
+// Columns of the features of `processes` (K per process) at the grid nodes.
+Eigen::MatrixXd GridColumns(HawkesFeatures& f, const std::vector<int>& processes) {
   const Eigen::Index rows = Eigen::Index(f.QuadratureGrid().times.size());
   const int k_count = f.basis_size();
-  Eigen::MatrixXd out(rows, Eigen::Index(intercept) + Eigen::Index(processes.size()) * k_count);
-  if (intercept) out.col(0).setOnes();
+  Eigen::MatrixXd out(rows, Eigen::Index(processes.size()) * k_count);
   for (size_t j = 0; j < processes.size(); ++j) {
-    out.middleCols(Eigen::Index(intercept) + Eigen::Index(j) * k_count, k_count) =
-        f.AtGrid(processes[j]);
+    out.middleCols(Eigen::Index(j) * k_count, k_count) = f.AtGrid(processes[j]);
   }
   return out;
 }
 
 // The same columns at the events of `target`.
-Eigen::MatrixXd EventColumns(HawkesFeatures& f, int target, const std::vector<int>& processes,
-                             bool intercept) {
+Eigen::MatrixXd EventColumns(HawkesFeatures& f, int target, const std::vector<int>& processes) {
   const Eigen::Index rows = Eigen::Index(f.data().times[target].size());
   const int k_count = f.basis_size();
-  Eigen::MatrixXd out(rows, Eigen::Index(intercept) + Eigen::Index(processes.size()) * k_count);
-  if (intercept) out.col(0).setOnes();
+  Eigen::MatrixXd out(rows, Eigen::Index(processes.size()) * k_count);
   for (size_t j = 0; j < processes.size(); ++j) {
-    out.middleCols(Eigen::Index(intercept) + Eigen::Index(j) * k_count, k_count) =
-        f.AtEvents(target, processes[j]);
+    out.middleCols(Eigen::Index(j) * k_count, k_count) = f.AtEvents(target, processes[j]);
   }
   return out;
+}
+
+// Exponential filters sum_{s < t} r exp(-r (t - s)) of `events` at sorted
+// `times` (left limits), one column per rate: the recursion of
+// HawkesFeatures, for the nuisance rates, which may differ from the shared
+// grid's.
+Eigen::MatrixXd Filters(const std::vector<double>& events, double start,
+                        const std::vector<double>& rates, const std::vector<double>& times) {
+  const Eigen::Index k_count = Eigen::Index(rates.size());
+  const Eigen::ArrayXd r = Eigen::Map<const Eigen::ArrayXd>(rates.data(), k_count);
+  Eigen::MatrixXd out(Eigen::Index(times.size()), k_count);
+  Eigen::ArrayXd state = Eigen::ArrayXd::Zero(k_count);
+  double now = start;
+  size_t next = 0;
+  for (size_t i = 0; i < times.size(); ++i) {
+    for (; next < events.size() && events[next] < times[i]; ++next) {
+      state = state * (-r * (events[next] - now)).exp() + r;
+      now = events[next];
+    }
+    out.row(Eigen::Index(i)) = (state * (-r * (times[i] - now)).exp()).matrix().transpose();
+  }
+  return out;
+}
+
+// The nuisance rates: `count` rates spaced geometrically from the slowest
+// shared rate / `span` to the fastest shared rate (count <= 0: the shared
+// rates themselves).
+std::vector<double> NuisanceRates(const std::vector<double>& shared, int count, double span) {
+  if (count <= 0) return shared;
+  const double low = *std::min_element(shared.begin(), shared.end()) / span;
+  const double high = *std::max_element(shared.begin(), shared.end());
+  std::vector<double> out;
+  for (int k = 0; k < count; ++k) {
+    out.push_back(count == 1 ? high : low * std::pow(high / low, double(k) / (count - 1)));
+  }
+  return out;
+}
+
+// The nuisance basis Z at the grid nodes and at b's events:
+//   [1, filters of each c in C at the nuisance rates,
+//    (quadratic) products z_i z_j, i <= j, of the standardised shared-rate
+//    features of C].
+// The products let both nuisances bend: with a hidden driver, b's intensity
+// given C's history is a nonlinear (filtering) function of C's past, which
+// no linear span of filters represents (Christgau, Petersen & Hansen 2023,
+// Sec. 5, use boosted trees and a ridge on the whole path for that reason).
+struct Basis {
+  Eigen::MatrixXd grid, events;
+};
+
+Basis NuisanceBasis(HawkesFeatures& f, int target, const std::vector<int>& given,
+                    const std::vector<double>& rates, bool quadratic) {
+  const sim::EventData& data = f.data();
+  const HawkesFeatures::Grid& grid = f.QuadratureGrid();
+  const std::vector<double>& at = data.times[target];
+  const Eigen::Index k_count = Eigen::Index(rates.size());
+  const Eigen::Index linear = Eigen::Index(given.size()) * k_count;
+  Eigen::MatrixXd sg = GridColumns(f, given), se = EventColumns(f, target, given);
+  const Eigen::Index q = sg.cols();
+  const Eigen::Index products = quadratic ? q * (q + 1) / 2 : 0;
+  Basis z{Eigen::MatrixXd(sg.rows(), 1 + linear + products),
+          Eigen::MatrixXd(se.rows(), 1 + linear + products)};
+  z.grid.col(0).setOnes();
+  z.events.col(0).setOnes();
+  for (size_t j = 0; j < given.size(); ++j) {
+    const std::vector<double>& ev = data.times[given[j]];
+    z.grid.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
+        Filters(ev, data.start, rates, grid.times);
+    z.events.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
+        Filters(ev, data.start, rates, at);
+  }
+  if (products == 0) return z;
+  // Standardise by the time-weighted mean and spread over the window (a
+  // scaling only: it changes no fitted value, it keeps the products'
+  // magnitudes comparable for the ridge).
+  const double total = grid.weights.sum();
+  const Eigen::RowVectorXd mean = (grid.weights.transpose() * sg) / total;
+  sg.rowwise() -= mean;
+  se.rowwise() -= mean;
+  const Eigen::RowVectorXd spread =
+      ((grid.weights.transpose() * sg.cwiseAbs2()) / total).cwiseSqrt().cwiseMax(1e-12);
+  sg.array().rowwise() /= spread.array();
+  se.array().rowwise() /= spread.array();
+  Eigen::Index col = 1 + linear;
+  for (Eigen::Index i = 0; i < q; ++i) {
+    for (Eigen::Index j = i; j < q; ++j, ++col) {
+      z.grid.col(col) = sg.col(i).cwiseProduct(sg.col(j));
+      z.events.col(col) = se.col(i).cwiseProduct(se.col(j));
+    }
+  }
+  return z;
 }
 
 // Block boundaries: the first event (of any process) at or after
@@ -75,7 +160,7 @@ struct Nuisance {
 Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_grid,
                      const Eigen::VectorXd& weights, const std::vector<int>& grid_fold,
                      const Eigen::MatrixXd& z_events, const std::vector<int>& event_fold,
-                     int train) {
+                     int train, double ridge) {
   const Eigen::Index p = z_grid.cols(), d = x_grid.cols();
   Eigen::MatrixXd gram = Eigen::MatrixXd::Zero(p, p);
   Eigen::MatrixXd right = Eigen::MatrixXd::Zero(p, d + 1);
@@ -89,10 +174,12 @@ Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_gri
   for (Eigen::Index i = 0; i < z_events.rows(); ++i) {
     if (event_fold[size_t(i)] == train) right.col(d) += z_events.row(i).transpose();
   }
-  // A relative ridge of 1e-9 on the diagonal only guards against exact
-  // collinearity (e.g. two identical processes); it is far below the
-  // sampling error of the fit.
-  gram.diagonal() *= 1 + 1e-9;
+  // A relative ridge on the diagonal (the intercept is not penalised): at
+  // 1e-9 it only guards against exact collinearity; larger values shrink
+  // the many product columns of the quadratic basis (a penalised fit, as the
+  // paper's ridge estimate of Pi; Christgau, Petersen & Hansen 2023, Sec. 5).
+  gram.diagonal().tail(p - 1) *= 1 + std::max(ridge, 1e-9);
+  gram(0, 0) *= 1 + 1e-9;
   Eigen::LDLT<Eigen::MatrixXd> ldlt(gram);
   Nuisance n;
   if (ldlt.info() != Eigen::Success || !ldlt.isPositive()) return n;
@@ -165,8 +252,12 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
       return Status::Error("singular design: source '" + data.names[a] + "' has no events");
     }
   }
-  // Blocks: several time constants of the slowest filter, at least 2.
-  const double slowest = *std::min_element(f.rates().begin(), f.rates().end());
+  // Blocks: several time constants of the slowest filter in use (shared or
+  // nuisance), at least 2.
+  const std::vector<double> rates =
+      NuisanceRates(f.rates(), options_.nuisance_rates, options_.nuisance_span);
+  const double slowest = std::min(*std::min_element(f.rates().begin(), f.rates().end()),
+                                  *std::min_element(rates.begin(), rates.end()));
   const double window = data.end - data.start;
   const int blocks = std::max(2, int(std::floor(window * slowest / options_.block_time_constants)));
   const std::vector<double> boundaries = BlockBoundaries(data, blocks);
@@ -181,10 +272,11 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
                          std::to_string(fewest) + " events in a cross-fitting fold (at least " +
                          std::to_string(options_.min_target_events) + " needed)");
   }
-  const Eigen::MatrixXd z_grid = GridColumns(f, q.given, true);
-  const Eigen::MatrixXd x_grid = GridColumns(f, q.sources, false);
-  const Eigen::MatrixXd z_events = EventColumns(f, q.target, q.given, true);
-  const Eigen::MatrixXd x_events = EventColumns(f, q.target, q.sources, false);
+  const Basis z = NuisanceBasis(f, q.target, q.given, rates, options_.quadratic);
+  const Eigen::MatrixXd& z_grid = z.grid;
+  const Eigen::MatrixXd& z_events = z.events;
+  const Eigen::MatrixXd x_grid = GridColumns(f, q.sources);
+  const Eigen::MatrixXd x_events = EventColumns(f, q.target, q.sources);
   const Eigen::Index d = x_grid.cols();
 
   // Residuals G_hat on each fold from the nuisances of the other fold, and
@@ -193,7 +285,8 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
   Eigen::VectorXd lambda_grid(x_grid.rows());
   for (int fold = 0; fold < 2; ++fold) {
     const Nuisance n =
-        FitNuisance(z_grid, x_grid, grid.weights, grid_fold, z_events, event_fold, 1 - fold);
+        FitNuisance(z_grid, x_grid, grid.weights, grid_fold, z_events, event_fold, 1 - fold,
+                    options_.ridge);
     if (!n.ok) return Status::Error("singular design: the history features of C are collinear");
     // Whole-matrix products (vectorised), then the rows of this fold.
     const Eigen::MatrixXd residual_grid = x_grid - z_grid * n.beta.leftCols(d);

@@ -76,6 +76,14 @@ enum class LocalCovarianceStatistic { kSupremum, kEndPoint };
 struct LocalCovarianceOptions {
   LocalCovarianceStatistic statistic = LocalCovarianceStatistic::kSupremum;
   double block_time_constants = 10;  // block length in units of 1 / (slowest rate)
+  // Nuisance basis: filters of C at `nuisance_rates` rates (geometric from
+  // the slowest shared rate / nuisance_span to the fastest; 0 = the shared
+  // rates), plus products of C's standardised shared-rate features when
+  // `quadratic`; relative ridge `ridge` on every column but the intercept.
+  int nuisance_rates = 0;
+  double nuisance_span = 2;
+  bool quadratic = false;
+  double ridge = 0;
   int min_target_events = 10;        // per fold
 };
 
