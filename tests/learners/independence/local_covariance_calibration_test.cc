@@ -40,6 +40,7 @@
 #include "graph/dmg.h"
 #include "learners/independence/hawkes_lr_test.h"
 #include "learners/independence/local_covariance_test.h"
+#include "learners/independence/oracle_test.h"
 #include "sim/hawkes_model.h"
 #include "sim/hawkes_simulator.h"
 #include "tests/learners/independence/calibration_checks.h"
@@ -364,6 +365,9 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
   variants[3].nuisance_rates = 6;
   variants[3].quadratic = true;
   variants[3].ridge = 1e-3;
+  const char* set = std::getenv("LOCIND_VARIANT_SET");
+  if (set && std::string(set) == "lr") variants.clear();
+  if (set && std::string(set) == "default") variants.resize(1);
   const char* which = std::getenv("LOCIND_VARIANT_SETTING");
   const Setting only = which && std::string(which) == "specified" ? Setting::kSpecified
                        : which && std::string(which) == "omitted" ? Setting::kOmittedParent
@@ -376,6 +380,68 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
                      RunVariants(s, horizon, reps, seed, variants));
     }
   }
+}
+
+// Every true null of the form b _||_ a | {b} or {b, c} on the demo graph
+// (the queries a size-1 screen asks), hidden drivers removed from the data,
+// parameters drawn per replicate (LOCIND_VARIANT_SETTING=drawn, default) or
+// the demo's two truths (fixed). Pooled rejections per test (skipped unless
+// run with --no-skip).
+TEST_CASE("pooled demo nulls" * doctest::skip()) {
+  const char* env = std::getenv("LOCIND_VARIANT_SEED");
+  const uint64_t seed = env ? std::strtoull(env, nullptr, 10) : 11;
+  const char* reps_env = std::getenv("LOCIND_VARIANT_REPS");
+  const int reps = reps_env ? std::atoi(reps_env) : 8;
+  const char* len_env = std::getenv("LOCIND_VARIANT_LENGTH");
+  const double horizon = len_env ? std::atof(len_env) : 4000.0;
+  const char* which = std::getenv("LOCIND_VARIANT_SETTING");
+  const bool fixed = which && std::string(which) == "fixed";
+  std::vector<LocalCovarianceOptions> variants(4);
+  variants[1].batch_variance = true;
+  variants[2].batch_variance = true;
+  variants[2].folds = 3;
+  variants[3].batch_variance = true;
+  variants[3].nuisance_rates = 6;
+  variants[3].quadratic = true;
+  variants[3].ridge = 1e-2;
+  const char* set = std::getenv("LOCIND_VARIANT_SET");
+  if (set && std::string(set) == "default") variants.resize(1);
+  const graph::TruthGraph truth = Truth(Setting::kDemoDrawn);
+  OracleTest oracle = OracleTest::FromTruth(truth).value();
+  std::vector<std::vector<double>> p(variants.size() + 1);
+  sim::HawkesRunOptions o;
+  o.horizon = horizon;
+  o.burn_in = 50;
+  for (int r = 0; r < reps; ++r) {
+    base::RandomStream random(base::StreamKey{seed, 99, uint64_t(r), uint64_t(horizon)});
+    const sim::HawkesModel model = fixed ? DemoTruth(truth, 1 + r % 2) : DemoDraw(truth, random);
+    sim::EventData d = sim::SimulateHawkes(model, o, random).value();
+    d.times.resize(5);
+    d.names.resize(5);
+    const std::vector<double> rates = DefaultHawkesRates(d);
+    auto features =
+        std::make_shared<HawkesFeatures>(HawkesFeatures::Create(std::move(d), rates).value());
+    HawkesLrTest lr(features, {.chi_bar_draws = 2000, .seed = seed});
+    std::vector<LocalCovarianceTest> lcm;
+    for (const LocalCovarianceOptions& v : variants) lcm.emplace_back(features, v);
+    for (int b = 0; b < 5; ++b) {
+      for (int a = 0; a < 5; ++a) {
+        if (a == b) continue;
+        for (int c = -1; c < 5; ++c) {
+          if (c == a || c == b) continue;
+          TestQuery q{b, {a}, c < 0 ? std::vector<int>{b} : std::vector<int>{std::min(b, c), std::max(b, c)}};
+          if (oracle.Run(q).p_value < 0.5) continue;
+          const TestResult t = lr.Run(q);
+          if (t.status == TestStatus::kOk) p[0].push_back(t.p_value);
+          for (size_t v = 0; v < lcm.size(); ++v) {
+            const TestResult u = lcm[v].Run(q);
+            if (u.status == TestStatus::kOk) p[v + 1].push_back(u.p_value);
+          }
+        }
+      }
+    }
+  }
+  ReportVariants(fixed ? "pooled demo (fixed truths)" : "pooled demo (drawn)", horizon, p);
 }
 
 }  // namespace locind::learners
