@@ -26,17 +26,18 @@
 // likelihood-ratio test of a misspecified intensity model.
 //
 // Cross-fitting: the window is cut into consecutive blocks of about
-// block_time_constants / (slowest rate) (default 10 slowest time constants,
-// at least 2 blocks; each boundary moved to the first event at or after
-// start + k * length so that it falls on a cut of the quadrature grid);
-// alternate blocks form folds 0 and 1. The nuisances fitted
-// on one fold are evaluated on the other, and the estimate sums both folds:
+// block_time_constants / (slowest rate in use) (default 10 slowest time
+// constants, at least one block per fold; each boundary moved to the first
+// event at or after start + k * length so that it falls on a cut of the
+// quadrature grid); blocks alternate among the folds (2, or 3 with
+// options.folds = 3). The nuisances fitted on other folds are evaluated on
+// each fold, and the estimate sums the folds:
 //   gamma_hat(t) = sum_{t_i <= t} G_hat(t_i) - int_0^t G_hat lambda_hat ds,
 //   V_hat = sum_i G_hat(t_i) G_hat(t_i)' (the optional variation),
 // with t_i the events of b. Long blocks keep a fold's nuisance fit nearly
-// independent of the other fold's data, which the paper obtains from
+// independent of the other folds' data, which the paper obtains from
 // independent replications; the cost is that each nuisance is fitted on half
-// the window.
+// (a third) of the window.
 //
 // Statistic and reference (LocalCovarianceStatistic):
 //   * kSupremum (default, the paper's test): per component j,

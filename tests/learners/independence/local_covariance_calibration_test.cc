@@ -28,6 +28,13 @@
 //
 // Seeds: 7 was used while developing (results in docs/tests.md); the seeds
 // below were run once, after the code was fixed.
+//
+// Two more cases, skipped unless run with --no-skip, compare the nuisance
+// options of LocalCovarianceOptions (environment LOCIND_VARIANT_SEED,
+// _REPS, _LENGTH, _SETTING, _SET choose the run): "nuisance basis variants"
+// on one query, and "pooled demo nulls" on every true null b _||_ a | {b}
+// or {b, c} of the demo graph. They print counts and assert nothing; their
+// measured tables are in docs/tests.md.
 #include <cstdio>
 #include <cstdlib>
 #include <string>
