@@ -10,32 +10,117 @@
 namespace locind::learners {
 namespace {
 
-// Columns of the features of `processes` (K per process) at the grid nodes,
-// after a leading column of ones when `intercept`.
-Eigen::MatrixXd GridColumns(HawkesFeatures& f, const std::vector<int>& processes, bool intercept) {
+// Columns of the features of `processes` (K per process) at the grid nodes.
+Eigen::MatrixXd GridColumns(HawkesFeatures& f, const std::vector<int>& processes) {
   const Eigen::Index rows = Eigen::Index(f.QuadratureGrid().times.size());
   const int k_count = f.basis_size();
-  Eigen::MatrixXd out(rows, Eigen::Index(intercept) + Eigen::Index(processes.size()) * k_count);
-  if (intercept) out.col(0).setOnes();
+  Eigen::MatrixXd out(rows, Eigen::Index(processes.size()) * k_count);
   for (size_t j = 0; j < processes.size(); ++j) {
-    out.middleCols(Eigen::Index(intercept) + Eigen::Index(j) * k_count, k_count) =
-        f.AtGrid(processes[j]);
+    out.middleCols(Eigen::Index(j) * k_count, k_count) = f.AtGrid(processes[j]);
   }
   return out;
 }
 
 // The same columns at the events of `target`.
-Eigen::MatrixXd EventColumns(HawkesFeatures& f, int target, const std::vector<int>& processes,
-                             bool intercept) {
+Eigen::MatrixXd EventColumns(HawkesFeatures& f, int target, const std::vector<int>& processes) {
   const Eigen::Index rows = Eigen::Index(f.data().times[target].size());
   const int k_count = f.basis_size();
-  Eigen::MatrixXd out(rows, Eigen::Index(intercept) + Eigen::Index(processes.size()) * k_count);
-  if (intercept) out.col(0).setOnes();
+  Eigen::MatrixXd out(rows, Eigen::Index(processes.size()) * k_count);
   for (size_t j = 0; j < processes.size(); ++j) {
-    out.middleCols(Eigen::Index(intercept) + Eigen::Index(j) * k_count, k_count) =
-        f.AtEvents(target, processes[j]);
+    out.middleCols(Eigen::Index(j) * k_count, k_count) = f.AtEvents(target, processes[j]);
   }
   return out;
+}
+
+// Exponential filters sum_{s < t} r exp(-r (t - s)) of `events` at sorted
+// `times` (left limits), one column per rate: the recursion of
+// HawkesFeatures, for the nuisance rates, which may differ from the shared
+// grid's.
+Eigen::MatrixXd Filters(const std::vector<double>& events, double start,
+                        const std::vector<double>& rates, const std::vector<double>& times) {
+  const Eigen::Index k_count = Eigen::Index(rates.size());
+  const Eigen::ArrayXd r = Eigen::Map<const Eigen::ArrayXd>(rates.data(), k_count);
+  Eigen::MatrixXd out(Eigen::Index(times.size()), k_count);
+  Eigen::ArrayXd state = Eigen::ArrayXd::Zero(k_count);
+  double now = start;
+  size_t next = 0;
+  for (size_t i = 0; i < times.size(); ++i) {
+    for (; next < events.size() && events[next] < times[i]; ++next) {
+      state = state * (-r * (events[next] - now)).exp() + r;
+      now = events[next];
+    }
+    out.row(Eigen::Index(i)) = (state * (-r * (times[i] - now)).exp()).matrix().transpose();
+  }
+  return out;
+}
+
+// The nuisance rates: `count` rates spaced geometrically from the slowest
+// shared rate / `span` to the fastest shared rate (count <= 0: the shared
+// rates themselves).
+std::vector<double> NuisanceRates(const std::vector<double>& shared, int count, double span) {
+  if (count <= 0) return shared;
+  const double low = *std::min_element(shared.begin(), shared.end()) / span;
+  const double high = *std::max_element(shared.begin(), shared.end());
+  std::vector<double> out;
+  for (int k = 0; k < count; ++k) {
+    out.push_back(count == 1 ? high : low * std::pow(high / low, double(k) / (count - 1)));
+  }
+  return out;
+}
+
+// The nuisance basis Z at the grid nodes and at b's events:
+//   [1, filters of each c in C at the nuisance rates,
+//    (quadratic) products z_i z_j, i <= j, of the standardised shared-rate
+//    features of C].
+// The products let both nuisances bend: with a hidden driver, b's intensity
+// given C's history is a nonlinear (filtering) function of C's past, which
+// no linear span of filters represents (Christgau, Petersen & Hansen 2023,
+// Sec. 5, use boosted trees and a ridge on the whole path for that reason).
+struct Basis {
+  Eigen::MatrixXd grid, events;
+};
+
+Basis NuisanceBasis(HawkesFeatures& f, int target, const std::vector<int>& given,
+                    const std::vector<double>& rates, bool quadratic) {
+  const sim::EventData& data = f.data();
+  const HawkesFeatures::Grid& grid = f.QuadratureGrid();
+  const std::vector<double>& at = data.times[target];
+  const Eigen::Index k_count = Eigen::Index(rates.size());
+  const Eigen::Index linear = Eigen::Index(given.size()) * k_count;
+  Eigen::MatrixXd sg = GridColumns(f, given), se = EventColumns(f, target, given);
+  const Eigen::Index q = sg.cols();
+  const Eigen::Index products = quadratic ? q * (q + 1) / 2 : 0;
+  Basis z{Eigen::MatrixXd(sg.rows(), 1 + linear + products),
+          Eigen::MatrixXd(se.rows(), 1 + linear + products)};
+  z.grid.col(0).setOnes();
+  z.events.col(0).setOnes();
+  for (size_t j = 0; j < given.size(); ++j) {
+    const std::vector<double>& ev = data.times[given[j]];
+    z.grid.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
+        Filters(ev, data.start, rates, grid.times);
+    z.events.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
+        Filters(ev, data.start, rates, at);
+  }
+  if (products == 0) return z;
+  // Standardise by the time-weighted mean and spread over the window (a
+  // scaling only: it changes no fitted value, it keeps the products'
+  // magnitudes comparable for the ridge).
+  const double total = grid.weights.sum();
+  const Eigen::RowVectorXd mean = (grid.weights.transpose() * sg) / total;
+  sg.rowwise() -= mean;
+  se.rowwise() -= mean;
+  const Eigen::RowVectorXd spread =
+      ((grid.weights.transpose() * sg.cwiseAbs2()) / total).cwiseSqrt().cwiseMax(1e-12);
+  sg.array().rowwise() /= spread.array();
+  se.array().rowwise() /= spread.array();
+  Eigen::Index col = 1 + linear;
+  for (Eigen::Index i = 0; i < q; ++i) {
+    for (Eigen::Index j = i; j < q; ++j, ++col) {
+      z.grid.col(col) = sg.col(i).cwiseProduct(sg.col(j));
+      z.events.col(col) = se.col(i).cwiseProduct(se.col(j));
+    }
+  }
+  return z;
 }
 
 // Block boundaries: the first event (of any process) at or after
@@ -56,11 +141,12 @@ std::vector<double> BlockBoundaries(const sim::EventData& data, int blocks) {
 }
 
 // Fold (0 or 1) of each time: the parity of its block.
-std::vector<int> Folds(const std::vector<double>& times, const std::vector<double>& boundaries) {
+std::vector<int> Folds(const std::vector<double>& times, const std::vector<double>& boundaries,
+                       int folds) {
   std::vector<int> fold(times.size());
   for (size_t i = 0; i < times.size(); ++i) {
     const auto k = std::upper_bound(boundaries.begin(), boundaries.end(), times[i]) - boundaries.begin();
-    fold[i] = int(k % 2);
+    fold[i] = int(k % folds);
   }
   return fold;
 }
@@ -75,7 +161,7 @@ struct Nuisance {
 Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_grid,
                      const Eigen::VectorXd& weights, const std::vector<int>& grid_fold,
                      const Eigen::MatrixXd& z_events, const std::vector<int>& event_fold,
-                     int train) {
+                     int train, double ridge) {
   const Eigen::Index p = z_grid.cols(), d = x_grid.cols();
   Eigen::MatrixXd gram = Eigen::MatrixXd::Zero(p, p);
   Eigen::MatrixXd right = Eigen::MatrixXd::Zero(p, d + 1);
@@ -89,10 +175,12 @@ Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_gri
   for (Eigen::Index i = 0; i < z_events.rows(); ++i) {
     if (event_fold[size_t(i)] == train) right.col(d) += z_events.row(i).transpose();
   }
-  // A relative ridge of 1e-9 on the diagonal only guards against exact
-  // collinearity (e.g. two identical processes); it is far below the
-  // sampling error of the fit.
-  gram.diagonal() *= 1 + 1e-9;
+  // A relative ridge on the diagonal (the intercept is not penalised): at
+  // 1e-9 it only guards against exact collinearity; larger values shrink
+  // the many product columns of the quadratic basis (a penalised fit, as the
+  // paper's ridge estimate of Pi; Christgau, Petersen & Hansen 2023, Sec. 5).
+  gram.diagonal().tail(p - 1) *= 1 + std::max(ridge, 1e-9);
+  gram(0, 0) *= 1 + 1e-9;
   Eigen::LDLT<Eigen::MatrixXd> ldlt(gram);
   Nuisance n;
   if (ldlt.info() != Eigen::Success || !ldlt.isPositive()) return n;
@@ -106,20 +194,34 @@ Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_gri
 // gamma_hat along time: events of b add G_hat(t_i), grid node g subtracts
 // w_g G_hat(s_g) lambda_hat(s_g). Both lists are sorted, so one merge gives
 // the path; its supremum is taken over the values after each step (the path
-// is monotone between two steps up to the quadrature). Also V_hat.
+// is monotone between two steps up to the quadrature). Also V_hat, and the
+// sum over blocks of each block's squared increment of gamma_hat (the
+// batch-means variance; blocks end at `boundaries`).
 LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
                                    const Eigen::VectorXd& weights, const Eigen::MatrixXd& g_grid,
                                    const Eigen::VectorXd& lambda_grid,
                                    const std::vector<double>& event_times,
-                                   const Eigen::MatrixXd& g_events) {
+                                   const Eigen::MatrixXd& g_events,
+                                   const std::vector<double>& boundaries) {
   const Eigen::Index d = g_grid.cols();
   LocalCovarianceEstimate e;
   // Per component, plain loops: the merge has one step per node and event.
   std::vector<double> gamma(size_t(d), 0.0), supremum(size_t(d), 0.0);
-  size_t g = 0, i = 0;
+  std::vector<double> block_start(size_t(d), 0.0), batch(size_t(d), 0.0);
+  const auto close_block = [&] {
+    for (size_t j = 0; j < size_t(d); ++j) {
+      const double increment = gamma[j] - block_start[j];
+      batch[j] += increment * increment;
+      block_start[j] = gamma[j];
+    }
+  };
+  size_t g = 0, i = 0, next = 0;
   while (g < grid_times.size() || i < event_times.size()) {
     const bool take_event =
         i < event_times.size() && (g == grid_times.size() || event_times[i] <= grid_times[g]);
+    const double now = take_event ? event_times[i] : grid_times[g];
+    // Boundaries are event times; an event at a boundary opens the new block.
+    for (; next < boundaries.size() && now >= boundaries[next]; ++next) close_block();
     for (Eigen::Index j = 0; j < d; ++j) {
       double& value = gamma[size_t(j)];
       if (take_event) {
@@ -131,9 +233,11 @@ LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
     }
     take_event ? ++i : ++g;
   }
+  close_block();
   e.gamma = Eigen::Map<Eigen::VectorXd>(gamma.data(), d);
   e.supremum = Eigen::Map<Eigen::VectorXd>(supremum.data(), d);
   e.variance = g_events.transpose() * g_events;
+  e.batch_variance = Eigen::Map<Eigen::VectorXd>(batch.data(), d);
   return e;
 }
 
@@ -165,40 +269,64 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
       return Status::Error("singular design: source '" + data.names[a] + "' has no events");
     }
   }
-  // Blocks: several time constants of the slowest filter, at least 2.
-  const double slowest = *std::min_element(f.rates().begin(), f.rates().end());
+  // Blocks: several time constants of the slowest filter in use (shared or
+  // nuisance), at least 2.
+  const std::vector<double> rates =
+      NuisanceRates(f.rates(), options_.nuisance_rates, options_.nuisance_span);
+  const double slowest = std::min(*std::min_element(f.rates().begin(), f.rates().end()),
+                                  *std::min_element(rates.begin(), rates.end()));
   const double window = data.end - data.start;
-  const int blocks = std::max(2, int(std::floor(window * slowest / options_.block_time_constants)));
+  const int folds = options_.folds;
+  const int blocks =
+      std::max(folds, int(std::floor(window * slowest / options_.block_time_constants)));
   const std::vector<double> boundaries = BlockBoundaries(data, blocks);
 
   const HawkesFeatures::Grid& grid = f.QuadratureGrid();
-  const std::vector<int> grid_fold = Folds(grid.times, boundaries);
-  const std::vector<int> event_fold = Folds(data.times[q.target], boundaries);
-  const int in_fold_one = int(std::count(event_fold.begin(), event_fold.end(), 1));
-  const int fewest = std::min(in_fold_one, int(event_fold.size()) - in_fold_one);
+  const std::vector<int> grid_fold = Folds(grid.times, boundaries, folds);
+  const std::vector<int> event_fold = Folds(data.times[q.target], boundaries, folds);
+  int fewest = int(event_fold.size());
+  for (int k = 0; k < folds; ++k) {
+    fewest = std::min(fewest, int(std::count(event_fold.begin(), event_fold.end(), k)));
+  }
   if (fewest < options_.min_target_events) {
     return Status::Error("too few events: '" + data.names[q.target] + "' has " +
                          std::to_string(fewest) + " events in a cross-fitting fold (at least " +
                          std::to_string(options_.min_target_events) + " needed)");
   }
-  const Eigen::MatrixXd z_grid = GridColumns(f, q.given, true);
-  const Eigen::MatrixXd x_grid = GridColumns(f, q.sources, false);
-  const Eigen::MatrixXd z_events = EventColumns(f, q.target, q.given, true);
-  const Eigen::MatrixXd x_events = EventColumns(f, q.target, q.sources, false);
+  const Basis z = NuisanceBasis(f, q.target, q.given, rates, options_.quadratic);
+  const Eigen::MatrixXd& z_grid = z.grid;
+  const Eigen::MatrixXd& z_events = z.events;
+  const Eigen::MatrixXd x_grid = GridColumns(f, q.sources);
+  const Eigen::MatrixXd x_events = EventColumns(f, q.target, q.sources);
   const Eigen::Index d = x_grid.cols();
 
-  // Residuals G_hat on each fold from the nuisances of the other fold, and
-  // the intensity estimate at the grid nodes.
+  // Residuals G_hat on each fold from nuisances fitted on other folds, and
+  // the intensity estimate at the grid nodes. With two folds both nuisances
+  // come from the other fold (the paper's cross-fitting); with three, Pi_hat
+  // comes from the next fold and lambda_hat from the one after, so their
+  // estimation errors are independent and their product has no mean beyond
+  // the product of the approximation biases (double cross-fitting: Newey &
+  // Robins 2018, arXiv 1801.09138, Sec. 3). Two errors fitted on one fold
+  // are correlated whenever a's future responds to b's past, which gives a
+  // bias of order (basis size) / sqrt(b's events) in the standardised
+  // statistic; the split removes it at the price of a third of the window
+  // per nuisance.
   Eigen::MatrixXd g_grid(x_grid.rows(), d), g_events(x_events.rows(), d);
   Eigen::VectorXd lambda_grid(x_grid.rows());
-  for (int fold = 0; fold < 2; ++fold) {
-    const Nuisance n =
-        FitNuisance(z_grid, x_grid, grid.weights, grid_fold, z_events, event_fold, 1 - fold);
-    if (!n.ok) return Status::Error("singular design: the history features of C are collinear");
+  for (int fold = 0; fold < folds; ++fold) {
+    const Nuisance pi = FitNuisance(z_grid, x_grid, grid.weights, grid_fold, z_events,
+                                    event_fold, (fold + 1) % folds, options_.ridge);
+    const Nuisance rate = folds == 2 ? pi
+                                     : FitNuisance(z_grid, x_grid, grid.weights, grid_fold,
+                                                   z_events, event_fold, (fold + 2) % folds,
+                                                   options_.ridge);
+    if (!pi.ok || !rate.ok) {
+      return Status::Error("singular design: the history features of C are collinear");
+    }
     // Whole-matrix products (vectorised), then the rows of this fold.
-    const Eigen::MatrixXd residual_grid = x_grid - z_grid * n.beta.leftCols(d);
-    const Eigen::VectorXd lambda = z_grid * n.beta.col(d);
-    const Eigen::MatrixXd residual_events = x_events - z_events * n.beta.leftCols(d);
+    const Eigen::MatrixXd residual_grid = x_grid - z_grid * pi.beta.leftCols(d);
+    const Eigen::VectorXd lambda = z_grid * rate.beta.col(d);
+    const Eigen::MatrixXd residual_events = x_events - z_events * pi.beta.leftCols(d);
     for (Eigen::Index g = 0; g < x_grid.rows(); ++g) {
       if (grid_fold[size_t(g)] != fold) continue;
       g_grid.row(g) = residual_grid.row(g);
@@ -209,7 +337,8 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
     }
   }
   LocalCovarianceEstimate e =
-      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, data.times[q.target], g_events);
+      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, data.times[q.target], g_events,
+                 boundaries);
   e.blocks = blocks;
   return e;
 }
@@ -240,7 +369,13 @@ TestResult LocalCovarianceTest::Compute(const TestQuery& q) {
   int used = 0;
   double smallest = 1;
   for (Eigen::Index j = 0; j < e.gamma.size(); ++j) {
-    const double v = e.variance(j, j);
+    // With `batch_variance`, the larger of the optional variation and the
+    // batch-means variance over blocks: the latter also carries the
+    // nuisances' own estimation noise (the term int G (lambda_hat - lambda)
+    // ds, of mean zero but not of zero variance on a finite window, which
+    // the optional variation leaves out) and any dependence between blocks.
+    const double v = options_.batch_variance ? std::max(e.variance(j, j), e.batch_variance[j])
+                                             : e.variance(j, j);
     if (!(v > 0)) continue;
     const double standardized = e.supremum[j] / std::sqrt(v);
     r.statistic = std::max(r.statistic, standardized);

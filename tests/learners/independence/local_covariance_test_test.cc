@@ -122,5 +122,52 @@ TEST_CASE("names, caching and not-estimable results") {
   CHECK(r.reason.rfind("singular design", 0) == 0);
 }
 
+TEST_CASE("nuisance filters at the shared rates give the shared-basis estimate") {
+  // Regression against the code's own default path: with 3 nuisance rates,
+  // span 1 and the geometric shared grid {0.5, 2, 8}, NuisanceRates returns
+  // the shared rates, so the basis built by the nuisance filters must equal
+  // HawkesFeatures' columns and the estimate must not change.
+  const sim::EventData d = Draw(0.3, 400, 21);
+  auto features = Features(d, {0.5, 2.0, 8.0});
+  LocalCovarianceTest shared(features);
+  LocalCovarianceTest own(features, {.nuisance_rates = 3, .nuisance_span = 1});
+  const auto a = shared.Estimate({1, {0}, {1}});
+  const auto b = own.Estimate({1, {0}, {1}});
+  REQUIRE(a.ok());
+  REQUIRE(b.ok());
+  for (Eigen::Index j = 0; j < a.value().gamma.size(); ++j) {
+    CHECK(b.value().gamma[j] == doctest::Approx(a.value().gamma[j]).epsilon(1e-8));
+    CHECK(b.value().variance(j, j) == doctest::Approx(a.value().variance(j, j)).epsilon(1e-8));
+  }
+}
+
+TEST_CASE("three folds: at least three blocks, every fold needs events") {
+  const sim::EventData d = Draw(0.3, 400, 22);
+  auto features = Features(d, {0.5, 2.0, 8.0});
+  // 400 * 0.5 / 10 = 20 blocks either way; a window of 40 gives 2 blocks
+  // with two folds and is raised to 3 with three.
+  LocalCovarianceTest three(features, {.folds = 3});
+  const auto e = three.Estimate({1, {0}, {1}});
+  REQUIRE(e.ok());
+  CHECK(e.value().blocks == 20);
+  const TestResult r = three.Run({1, {0}, {1}});
+  CHECK(r.status == TestStatus::kOk);
+  CHECK(r.p_value > 0);
+  CHECK(r.p_value <= 1);
+  sim::EventData short_window = Draw(0.3, 40, 23);
+  LocalCovarianceTest short_three(Features(short_window, {0.5, 2.0, 8.0}), {.folds = 3});
+  const auto s = short_three.Estimate({1, {0}, {1}});
+  if (s.ok()) {
+    CHECK(s.value().blocks == 3);
+  } else {
+    CHECK(s.status().message().rfind("too few events", 0) == 0);
+  }
+  // The quadratic basis with a ridge runs and finds a strong effect.
+  const sim::EventData strong = Draw(0.5, 1000, 3);
+  LocalCovarianceTest rich(Features(strong, DefaultHawkesRates(strong)),
+                           {.nuisance_rates = 6, .quadratic = true, .ridge = 1e-2, .folds = 3});
+  CHECK(rich.Run({1, {0}, {1}}).p_value < 1e-6);
+}
+
 }  // namespace
 }  // namespace locind::learners
