@@ -3,6 +3,7 @@ locind_layer(locind_io
   DEPS locind_metrics yaml-cpp PkgConfig::GVC
   SOURCES
     app/io/atomic_file.cc
+    app/io/child_process.cc
     app/io/event_csv.cc
     app/io/external_program.cc
     app/io/graph_file.cc
