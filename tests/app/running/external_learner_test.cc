@@ -106,6 +106,40 @@ TEST_CASE("crashing, hanging and garbage-writing programs give failed rows and t
   CHECK(all.find("stderr: no license for this method") != std::string::npos);
 }
 
+TEST_CASE("an external learner in --part shares, merged, and resumed gives the whole run's rows") {
+  Scratch s("locind_external_learner_test_parts");
+  // A deterministic program: the graph a -> b, b -> b, c -> c over the task's processes.
+  const std::string fixed = s.Write(
+      "fixed.sh",
+      "printf '{\"nodes\": [\"a\", \"b\", \"c\"], \"edges\": [\"a -> b\", \"b -> b\", \"c -> c\"]}' "
+      "> \"$1/graph.json\"\n");
+  std::string text = kTinyStudy;
+  text.replace(text.find("  - {method: pairwise, test: hawkes-lr}\n"), 40, "");
+  text.replace(text.find("  - {method: screen, test: hawkes-lr}\n"), 38, "");
+  text += "  - {program: [sh, " + fixed + "], name: fixed, needs: data}\n";
+  const std::string study = s.Write("parts.yaml", text);
+  REQUIRE(Run({study, "--out", s.Path("whole")}) == kExitOk);
+  REQUIRE(Run({study, "--out", s.Path("p1"), "--part", "1/2"}) == kExitOk);
+  REQUIRE(Run({study, "--out", s.Path("p2"), "--part", "2/2"}) == kExitOk);
+  std::ostringstream out, err;
+  REQUIRE(RunMergeCommand({s.Path("p1"), s.Path("p2"), "--out", s.Path("merged")}, out, err) == kExitOk);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 5);
+  // A second run of a finished folder runs nothing and changes nothing.
+  const std::string before = WithoutTimings(s.dir / "whole" / "replicates.csv");
+  std::string log;
+  REQUIRE(Run({study, "--out", s.Path("whole")}, &log) == kExitOk);
+  CHECK(log.find("8 of 8 units already done") != std::string::npos);
+  CHECK(WithoutTimings(s.dir / "whole" / "replicates.csv") == before);
+  int rows = 0;
+  for (const Row& r : ReadRows(s.dir / "whole" / "replicates.csv")) {
+    if (r.at("learner") != "fixed") continue;
+    CHECK(r.at("status") == "ok");
+    CHECK(r.at("reported") == "3");
+    ++rows;
+  }
+  CHECK(rows == 8);  // 2 lengths x 4 replicates
+}
+
 TEST_CASE("oracle questions: answers from the projection, malformed lines refused") {
   // examples/alarm_chain.yaml: a -> b, b -> b, h -> a, h -> c, c -> b, h hidden;
   // the answers below are those of tests/app/cli/graph_command_test.cc.
