@@ -160,6 +160,55 @@ Result<learners::LearnResult> ReadLearned(const std::string& folder,
   return r;
 }
 
+// tests.csv, the optional test log of a data program: a header
+// "target,sources,given,statistic,df,p_value", then one test per line with
+// process names (lists separated by ';', C may be empty). Appended to `log`.
+Status ReadTestLog(const std::string& folder, const std::vector<std::string>& names, double level,
+                   std::vector<learners::TestRecord>& log) {
+  std::ifstream in(folder + "/tests.csv", std::ios::binary);
+  if (!in) return Status::Ok();
+  std::string line;
+  int number = 0;
+  auto bad = [&](const std::string& why) {
+    return Status::Error("malformed tests.csv: line " + std::to_string(number) + ": " + why);
+  };
+  while (std::getline(in, line)) {
+    ++number;
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    if (number == 1) {
+      if (line != "target,sources,given,statistic,df,p_value") {
+        return bad("expected the header target,sources,given,statistic,df,p_value");
+      }
+      continue;
+    }
+    if (line.empty()) continue;
+    const std::vector<std::string> f = Split(line, ',');
+    if (f.size() != 6) return bad("expected 6 fields");
+    std::vector<std::string> lists = {f[0], f[1], f[2]};
+    for (std::string& l : lists) std::replace(l.begin(), l.end(), ';', ',');
+    learners::TestRecord t;
+    std::vector<int> target;
+    std::string unknown;
+    if (!Indices(lists[0], names, target, unknown) || !Indices(lists[1], names, t.sources, unknown) ||
+        !Indices(lists[2], names, t.given, unknown)) {
+      return bad("unknown process '" + unknown + "'");
+    }
+    if (target.size() != 1 || t.sources.empty()) return bad("one target and at least one source");
+    t.target = target[0];
+    try {
+      t.statistic = std::stod(f[3]);
+      t.df = std::stod(f[4]);
+      t.p_value = std::stod(f[5]);
+    } catch (const std::exception&) {
+      return bad("statistic, df and p_value must be numbers");
+    }
+    if (!(t.p_value >= 0 && t.p_value <= 1)) return bad("p_value must lie in [0, 1]");
+    t.dependent = t.p_value <= level;
+    log.push_back(std::move(t));
+  }
+  return Status::Ok();
+}
+
 }  // namespace
 
 bool AnswerQuestion(const std::string& line, const std::vector<std::string>& names,
@@ -241,9 +290,16 @@ Result<learners::LearnResult> ExternalLearner::Learn(const learners::LearnInput&
   if (!outcome.ok()) return fail("program " + outcome.Describe());
   Result<learners::LearnResult> learned = ReadLearned(folder, task_.names);
   if (!learned.ok()) return fail(learned.status().message());
+  if (!oracle) {
+    if (Status read = ReadTestLog(folder, task_.names, input.level, log); !read.ok()) {
+      return fail(read.message());
+    }
+  }
   learners::LearnResult r = std::move(learned.value());
   r.method = "external";
-  r.test_kind = oracle ? input.test->kind() : "none";
+  // A data program's own tests are p-values: "external" sends them to
+  // null_tests.csv like a built-in test's ("none" would skip them).
+  r.test_kind = oracle ? input.test->kind() : log.empty() ? "none" : "external";
   r.log = std::move(log);
   r.tests = static_cast<int>(r.log.size());
   for (const learners::TestRecord& t : r.log) {

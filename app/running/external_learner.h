@@ -6,13 +6,16 @@
 // task.json (observed processes, data kind, window, level, a seed from the
 // replicate's stream), runs the program (no shell; its folder as working
 // directory and as last argument; its time limit) and reads back graph.json
-// (any graph file app/io/graph_file.h reads, over the observed processes).
+// (any graph file app/io/graph_file.h reads, over the observed processes)
+// and, when the program wrote one, its test log tests.csv (one test per line;
+// the tests then count like a built-in method's and their p-values go to
+// null_tests.csv).
 // With the oracle, each line the program writes on standard output is a
 // question "b;A;C" answered "separated" or "connected" from the test it is
 // given (the truth's latent projection) and logged as a test.
 //
 // Every failure of the program (cannot start, non-zero exit, signal, time
-// limit, missing or malformed graph, unknown or missing node) is a failed
+// limit, missing or malformed graph or test log, unknown or missing node) is a failed
 // Result whose message gives the reason, the folder (kept for a rerun by
 // hand) and the tail of standard error. The folder is removed on success.
 #pragma once

@@ -60,6 +60,10 @@ TEST_CASE("crashing, hanging and garbage-writing programs give failed rows and t
       "unknown.sh", "echo '{\"nodes\": [\"a\", \"b\", \"c\", \"q\"], \"edges\": []}' > \"$1/graph.json\"\n");
   const std::string fails = s.Write("fails.sh", "echo 'no license for this method' >&2\nexit 3\n");
   const std::string silent = s.Write("silent.sh", "exit 0\n");
+  const std::string badlog = s.Write(
+      "badlog.sh",
+      "echo 'nodes: [a, b, c]' > \"$1/graph.json\"\n"
+      "printf 'target,sources,given,statistic,df,p_value\\nb,a,,1,1,2\\n' > \"$1/tests.csv\"\n");
   std::string text = kTinyStudy;
   text.replace(text.find("lengths: [150, 300]"), 19, "lengths: [150]");
   text.replace(text.find("replicates: 4"), 13, "replicates: 2");
@@ -67,7 +71,7 @@ TEST_CASE("crashing, hanging and garbage-writing programs give failed rows and t
   text.replace(text.find("  - {method: screen, test: hawkes-lr}\n"), 38, "");
   for (const auto& [name, path] : std::vector<std::pair<std::string, std::string>>{
            {"crash", crash}, {"garbage", garbage}, {"unknown", unknown}, {"fails", fails},
-           {"silent", silent}}) {
+           {"silent", silent}, {"badlog", badlog}}) {
     text += "  - {program: [sh, " + path + "], name: " + name + ", needs: data}\n";
   }
   text += "  - {program: [sh, " + hang + "], name: hang, needs: oracle, time_limit: 1}\n";
@@ -81,6 +85,7 @@ TEST_CASE("crashing, hanging and garbage-writing programs give failed rows and t
       {"unknown", "learner: unknown node 'q' in graph.json"},
       {"fails", "learner: program exit code 3"},
       {"silent", "learner: no graph.json written"},
+      {"badlog", "learner: malformed tests.csv: line 2: p_value must lie in [0; 1]"},
   };
   int failed = 0, ok = 0;
   for (const Row& r : ReadRows(s.dir / "out" / "replicates.csv")) {
@@ -99,7 +104,7 @@ TEST_CASE("crashing, hanging and garbage-writing programs give failed rows and t
     ++failed;
   }
   CHECK(ok == 2);
-  CHECK(failed == 6 * 2);
+  CHECK(failed == 7 * 2);
   // Standard error travels with the row (commas become ';' in result files).
   const std::string all = ReadAll(s.dir / "out" / "replicates.csv");
   CHECK(all.find("stderr: about to crash") != std::string::npos);
@@ -241,6 +246,8 @@ TEST_CASE("the example study: the Python pairwise program scores exactly like th
     CHECK(python.at("tests") == "16");  // n^2 questions, 4 observed processes
     CHECK(rows.at("py_search").at("status") == "ok");
     CHECK(rows.at("py_excess").at("status") == "ok");
+    CHECK(rows.at("py_excess").at("tests") == "16");  // its tests.csv: one test per ordered pair
+    CHECK(rows.at("py_excess").at("test") == "none");
   }
   // The same edges, reported or not, with the same truth status.
   std::map<std::string, std::set<std::string>> edges;  // learner -> "replicate edge action"
