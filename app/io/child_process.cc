@@ -41,6 +41,9 @@ struct Channels {
     if (::socketpair(AF_UNIX, SOCK_STREAM | SOCK_CLOEXEC, 0, in) != 0) return false;
     in_parent = in[0];
     in_child = in[1];
+    // Never block on a child that does not read its answers: a full socket
+    // ends the conversation (EAGAIN) instead of stalling past the limit.
+    ::fcntl(in_parent, F_SETFL, ::fcntl(in_parent, F_GETFL) | O_NONBLOCK);
     if (::pipe2(out, O_CLOEXEC) != 0) return false;
     out_parent = out[0];
     out_child = out[1];
@@ -148,7 +151,7 @@ class Conversation {
     while (sent < reply.size()) {
       const ssize_t n = ::send(c_.in_parent, reply.data() + sent, reply.size() - sent, MSG_NOSIGNAL);
       if (n < 0 && errno == EINTR) continue;
-      if (n <= 0) {  // the child stopped reading: keep reading its output
+      if (n <= 0) {  // the child stopped reading (or is not): keep reading its output
         CloseFd(c_.in_parent);
         return;
       }

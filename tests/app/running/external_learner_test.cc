@@ -12,6 +12,7 @@
 #include "app/io/child_process.h"
 #include "app/io/error.h"
 #include "app/running/external_learner.h"
+#include "app/study/study_file.h"
 #include "learners/independence/oracle_test.h"
 #include "tests/app/run_folders.h"
 
@@ -143,6 +144,41 @@ TEST_CASE("an external learner in --part shares, merged, and resumed gives the w
     ++rows;
   }
   CHECK(rows == 8);  // 2 lengths x 4 replicates
+}
+
+TEST_CASE("study keys of an external learner: read, defaulted, and refused with their place") {
+  Scratch s("locind_external_learner_test_keys");
+  s.Write("mine.py", "");
+  std::string text = kTinyStudy;
+  text += "  - {program: [python3, mine.py, --k, \"2\"], name: mine}\n"
+          "  - {program: [sh, x.sh], name: asks, needs: oracle, time_limit: 2.5}\n";
+  StudyOrErrors read = ParseStudyText(text, (s.dir / "keys.yaml").string());
+  REQUIRE(std::holds_alternative<StudySpec>(read));
+  const StudySpec& study = std::get<StudySpec>(read);
+  REQUIRE(study.learners.size() == 5);
+  const LearnerSpec& mine = study.learners[3];
+  CHECK(mine.label == "mine");
+  CHECK(mine.method == "external");
+  CHECK(mine.test == "none");
+  CHECK(mine.time_limit == 60);
+  // mine.py lies next to the study file: made absolute; python3 and --k are left alone.
+  CHECK(mine.program == std::vector<std::string>{"python3", (s.dir / "mine.py").string(), "--k", "2"});
+  CHECK(study.learners[4].test == "oracle");
+  CHECK(study.learners[4].time_limit == 2.5);
+  CHECK(study.learners[4].program == std::vector<std::string>{"sh", "x.sh"});
+
+  std::string bad = kTinyStudy;
+  bad += "  - {program: [], name: a}\n"
+         "  - {program: [sh], needs: sometimes, time_limit: 0, name: b}\n"
+         "  - {program: [sh], colour: red}\n";
+  StudyOrErrors refused = ParseStudyText(bad, "bad.yaml");
+  REQUIRE(std::holds_alternative<std::vector<Error>>(refused));
+  std::string all;
+  for (const Error& e : std::get<std::vector<Error>>(refused)) all += e.ToString() + "\n";
+  CHECK(all.find("learners[4].program: expected a list: the program and its arguments") != std::string::npos);
+  CHECK(all.find("learners[5].needs: expected one of: data, oracle") != std::string::npos);
+  CHECK(all.find("learners[5].time_limit: must lie in (0, 86400]") != std::string::npos);
+  CHECK(all.find("learners[6].colour: unknown key") != std::string::npos);
 }
 
 TEST_CASE("oracle questions: answers from the projection, malformed lines refused") {
