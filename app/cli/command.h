@@ -29,5 +29,6 @@ int RunRunCommand(const std::vector<std::string>& args, std::ostream& out, std::
 int RunMergeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+int RunScoreCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 }  // namespace locind::app

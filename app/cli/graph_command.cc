@@ -60,9 +60,9 @@ struct Loaded {
 };
 
 Loaded LoadProjected(const std::string& path) {
-  GraphOrError read = ReadGraphFile(path);
-  if (auto* e = std::get_if<Error>(&read)) throw *e;
-  TruthGraph truth = std::get<TruthGraph>(std::move(read));
+  GraphFileOrErrors read = ReadAnyGraphFile(path);
+  if (auto* errors = std::get_if<Errors>(&read)) throw *errors;
+  TruthGraph truth = std::get<GraphFile>(std::move(read)).truth;
   Result<Dmg> projected = graph::LatentProjection(truth.graph, truth.hidden);
   if (!projected.ok()) throw Error{path, 0, 0, "", projected.status().message()};
   return Loaded{std::move(truth), std::move(*projected)};

@@ -141,10 +141,10 @@ Inputs LoadInputs(const LearnOptions& o) {
     if (!o.test.empty() && o.test != "oracle") {
       throw UsageError{"--oracle runs the oracle test only"};
     }
-    GraphOrError read = ReadGraphFile(o.oracle);
-    if (auto* e = std::get_if<Error>(&read)) throw *e;
+    GraphFileOrErrors read = ReadAnyGraphFile(o.oracle);
+    if (auto* errors = std::get_if<Errors>(&read)) throw *errors;
     Result<learners::OracleTest> oracle =
-        learners::OracleTest::FromTruth(std::get<graph::TruthGraph>(read));
+        learners::OracleTest::FromTruth(std::get<GraphFile>(read).truth);
     if (!oracle.ok()) throw Error{o.oracle, 0, 0, "", oracle.status().message()};
     in.test = std::make_unique<learners::OracleTest>(std::move(oracle.value()));
     return in;

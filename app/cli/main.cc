@@ -25,6 +25,8 @@ const Command kCommands[] = {
     {"merge", "join the result folders of --part shares into one", locind::app::RunMergeCommand},
     {"plan", "smallest observation length reaching a target power and false-edge rate", locind::app::RunPlanCommand},
     {"report", "HTML report with figures of a finished result folder", locind::app::RunReportCommand},
+    {"score", "score a learned graph against the class of a truth with hidden processes",
+     locind::app::RunScoreCommand},
 };
 
 void PrintUsage(std::ostream& out) {

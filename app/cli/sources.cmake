@@ -10,6 +10,7 @@ locind_layer(locind_cli
     app/cli/plan_command.cc
     app/cli/report_command.cc
     app/cli/run_command.cc
+    app/cli/score_command.cc
     app/cli/simulate_command.cc
     app/cli/test_command.cc
     app/cli/version.cc

@@ -4,6 +4,7 @@ locind_layer(locind_io
   SOURCES
     app/io/atomic_file.cc
     app/io/data_kind.cc
+    app/io/child_process.cc
     app/io/event_csv.cc
     app/io/external_program.cc
     app/io/graph_file.cc

@@ -258,6 +258,12 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
       << JsonString(l.method) << ", \"test\": " << JsonString(l.test);
     if (l.method == "screen") o << ", \"size\": " << l.screening_size;
     if (l.method == "penalized-fit") o << ", \"penalty\": " << Num(l.penalty > 0 ? l.penalty : 1);
+    // --- external learners (docs/external_learners.md): the program as run ---
+    if (l.IsExternal()) {
+      o << ", \"program\": [";
+      for (size_t k = 0; k < l.program.size(); ++k) o << (k ? ", " : "") << JsonString(l.program[k]);
+      o << "], \"time_limit\": " << Num(l.time_limit);
+    }
     o << "}";
   }
   o << "\n  ],\n  \"truths\": " << TruthsJson(truths);

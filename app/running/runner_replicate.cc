@@ -9,6 +9,7 @@
 #include <variant>
 
 #include "app/io/event_csv.h"
+#include "app/running/external_learner.h"
 #include "app/results/decision_rows.h"
 #include "app/study/study_cost.h"
 #include "app/study/test_choice.h"
@@ -230,6 +231,19 @@ void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_
   }
 }
 
+// An external learner (app/running/external_learner.h): its seed is keyed
+// like the data, with a purpose of its own.
+std::unique_ptr<learners::Learner> MakeExternal(uint64_t seed, const LearnerSpec& spec,
+                                                const PreparedTruth& truth, const Cell& cell,
+                                                int replicate) {
+  ExternalTask task;
+  task.names = truth.truth_class->projected.names();
+  task.seed = base::StreamSeed(
+      {seed, cell.data_key, static_cast<uint64_t>(replicate), kPurposeExternal});
+  task.folder_hint = spec.label + "-c" + std::to_string(cell.index) + "-r" + std::to_string(replicate);
+  return std::make_unique<ExternalLearner>(spec, std::move(task));
+}
+
 // Runs one learner on the data and scores it; fills `row`, the edge lines
 // and the null-test lines.
 void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& truth,
@@ -248,7 +262,12 @@ void RunLearner(uint64_t seed, const LearnerSpec& spec, const PreparedTruth& tru
   learners::MethodSettings settings;
   settings.screening_size = spec.screening_size;
   settings.penalty = spec.penalty;
-  std::unique_ptr<learners::Learner> method = learners::FindMethod(spec.method)->make(settings);
+  std::unique_ptr<learners::Learner> method;
+  if (spec.IsExternal()) {
+    method = MakeExternal(seed, spec, truth, cell, row.replicate);
+  } else {
+    method = learners::FindMethod(spec.method)->make(settings);
+  }
   Result<learners::LearnResult> result = method->Learn(
       learners::LearnInput{timed.get(), cell.level, data.events.get(), data.paths.get()});
   row.timing_learn_seconds = Since(start);

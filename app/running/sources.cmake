@@ -2,6 +2,7 @@
 locind_layer(locind_running
   DEPS locind_results
   SOURCES
+    app/running/external_learner.cc
     app/running/progress.cc
     app/running/runner.cc
     app/running/runner_journal.cc

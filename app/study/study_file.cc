@@ -448,6 +448,15 @@ class StudyParser {
     for (size_t i = 0; i < list.size(); ++i) {
       const std::string s = "learners[" + std::to_string(i + 1) + "]";
       const YAML::Node l = list[i];
+      if (l.IsMap() && l["program"]) {
+        LearnerSpec spec = ParseExternal(l, s);
+        if (!spec.label.empty() && !labels.insert(spec.label).second) {
+          Fail(l, s, "learner '" + spec.label + "' listed twice (give one of them a name)");
+        } else if (!spec.label.empty()) {
+          out.push_back(spec);
+        }
+        continue;
+      }
       if (!CheckKeys(l, s, {"method", "test", "name", "size", "penalty"})) continue;
       LearnerSpec spec;
       if (!Require(l, "method", s)) continue;
@@ -474,6 +483,41 @@ class StudyParser {
       out.push_back(spec);
     }
     return out;
+  }
+
+  // ---- external learners (docs/external_learners.md) ----
+
+  // {program: [argv...], name, time_limit, needs: data|oracle}. An element of
+  // the program list that names an existing file relative to the study
+  // file's folder is made absolute (the program runs in a folder of its own).
+  LearnerSpec ParseExternal(const YAML::Node& l, const std::string& s) {
+    LearnerSpec spec;
+    if (!CheckKeys(l, s, {"program", "name", "time_limit", "needs"})) return spec;
+    const YAML::Node program = l["program"];
+    if (!program.IsSequence() || program.size() == 0) {
+      Fail(program, Join(s, "program"), "expected a list: the program and its arguments");
+      return spec;
+    }
+    const std::filesystem::path here = std::filesystem::path(file_).parent_path();
+    for (const YAML::Node& arg : program) {
+      if (!arg.IsScalar() || arg.Scalar().empty()) {
+        Fail(arg, Join(s, "program"), "expected a word (the program or one argument)");
+        return spec;
+      }
+      std::string word = arg.Scalar();
+      const std::filesystem::path local = here / word;
+      std::error_code ec;
+      if (std::filesystem::path(word).is_relative() && std::filesystem::is_regular_file(local, ec)) {
+        word = std::filesystem::absolute(local, ec).lexically_normal().string();
+      }
+      spec.program.push_back(word);
+    }
+    if (!Require(l, "name", s)) return LearnerSpec{};
+    spec.label = Name(l["name"], Join(s, "name"));
+    spec.method = "external";
+    spec.test = Word(l, "needs", s, {"data", "oracle"}) == "oracle" ? "oracle" : "none";
+    spec.time_limit = Bounded(l, "time_limit", s, 60, 0, 86400, true, false);
+    return spec;
   }
 
   std::string LearnerTest(const YAML::Node& l, const std::string& s,

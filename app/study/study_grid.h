@@ -29,6 +29,7 @@ enum StreamPurpose : uint64_t {
   kPurposeData = 3,
   kPurposeSummary = 4,
   kPurposeTestDraws = 5,  // Monte Carlo draws inside a test (chi-bar weights)
+  kPurposeExternal = 6,   // the seed handed to an external learner's program
 };
 
 struct Cell {

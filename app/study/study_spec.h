@@ -75,6 +75,12 @@ struct LearnerSpec {
   std::string test;    // oracle, an EventTestNames() entry (app/study/test_choice.h), drift-exact-lr, drift-f, drift-robust-wald, none
   int screening_size = 1;
   double penalty = -1;
+  // --- An external learner (docs/external_learners.md): a program run per
+  // replicate instead of a built-in method. method is then "external" and
+  // test "none" (needs: data) or "oracle" (needs: oracle). ---
+  std::vector<std::string> program;  // argv; empty for built-in methods
+  double time_limit = 60;            // seconds per replicate
+  bool IsExternal() const { return !program.empty(); }
 };
 
 struct GridSpec {
