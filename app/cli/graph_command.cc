@@ -213,7 +213,7 @@ struct Subcommand {
 const std::map<std::string, Subcommand> kSubcommands = {
     {"check",
      {Check, "locind graph check FILE --from A --to B [--given C1,C2]",
-      "  is A mu-separated from B given C in the latent projection of FILE?\n"
+      "  is B mu-separated from A given C in the latent projection of FILE?\n"
       "  --from A1,A2   source node(s)\n"
       "  --to B1,B2     target node(s)\n"
       "  --given C1,C2  conditioning nodes (default: none)\n"
