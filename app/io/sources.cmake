@@ -12,4 +12,6 @@ locind_layer(locind_io
     app/io/model_file_writer.cc
     app/io/path_csv.cc
     app/io/svg_render.cc
+    app/io/trial_folder.cc
+    app/io/window_check.cc
 )

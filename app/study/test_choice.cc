@@ -4,6 +4,7 @@
 #include <fstream>
 
 #include "app/io/error.h"
+#include "app/io/trial_folder.h"
 #include "learners/independence/drift_transition_test.h"
 
 namespace locind::app {
@@ -90,6 +91,10 @@ Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::stri
 }
 
 bool LooksLikeEventFile(const std::string& path) {
+  // A folder of trials: its first file decides.
+  if (const std::vector<std::string> files = TrialFiles(path); !files.empty()) {
+    return LooksLikeEventFile(files.front());
+  }
   std::ifstream in(path);
   if (!in) throw Error{path, 0, 0, "", "cannot open the file"};
   for (std::string line; std::getline(in, line);) {

@@ -60,7 +60,8 @@ Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::stri
                                                                  std::vector<double> rates = {});
 
 // True when the first line that is not a '#' comment is the event header
-// "time,process". Throws Error when the file cannot be opened.
+// "time,process" (for a folder of trials: in its first *.csv file). Throws
+// Error when the file cannot be opened.
 bool LooksLikeEventFile(const std::string& path);
 
 }  // namespace locind::app

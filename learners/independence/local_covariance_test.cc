@@ -65,6 +65,12 @@ std::vector<int> Folds(const std::vector<double>& times, const std::vector<doubl
   return fold;
 }
 
+// Fold (0 or 1) of each trial index: its parity.
+std::vector<int> ParityOf(std::vector<int> trial) {
+  for (int& k : trial) k %= 2;
+  return trial;
+}
+
 // Least-squares nuisance coefficients fitted on one fold: columns 0..d-1 of
 // the result project the X components, column d is the intensity.
 struct Nuisance {
@@ -165,15 +171,24 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
       return Status::Error("singular design: source '" + data.names[a] + "' has no events");
     }
   }
-  // Blocks: several time constants of the slowest filter, at least 2.
-  const double slowest = *std::min_element(f.rates().begin(), f.rates().end());
-  const double window = data.end - data.start;
-  const int blocks = std::max(2, int(std::floor(window * slowest / options_.block_time_constants)));
-  const std::vector<double> boundaries = BlockBoundaries(data, blocks);
-
   const HawkesFeatures::Grid& grid = f.QuadratureGrid();
-  const std::vector<int> grid_fold = Folds(grid.times, boundaries);
-  const std::vector<int> event_fold = Folds(data.times[q.target], boundaries);
+  int blocks = 0;
+  std::vector<int> grid_fold, event_fold;
+  if (data.trial_count() >= 2) {
+    // Several trials: the trials are the replications; cross-fit on the
+    // parity of the trial index (no block spans two trials).
+    blocks = data.trial_count();
+    grid_fold = ParityOf(grid.trial);
+    event_fold = ParityOf(f.TrialOfEvents(q.target));
+  } else {
+    // Blocks: several time constants of the slowest filter, at least 2.
+    const double slowest = *std::min_element(f.rates().begin(), f.rates().end());
+    const double window = data.end - data.start;
+    blocks = std::max(2, int(std::floor(window * slowest / options_.block_time_constants)));
+    const std::vector<double> boundaries = BlockBoundaries(data, blocks);
+    grid_fold = Folds(grid.times, boundaries);
+    event_fold = Folds(data.times[q.target], boundaries);
+  }
   const int in_fold_one = int(std::count(event_fold.begin(), event_fold.end(), 1));
   const int fewest = std::min(in_fold_one, int(event_fold.size()) - in_fold_one);
   if (fewest < options_.min_target_events) {
@@ -209,7 +224,7 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
     }
   }
   LocalCovarianceEstimate e =
-      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, data.times[q.target], g_events);
+      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, f.StackedTimes(q.target), g_events);
   e.blocks = blocks;
   return e;
 }

@@ -30,7 +30,7 @@ TEST_CASE("replicates.csv header") {
         "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds,"
         "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
         "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
-        "false_reach");
+        "false_reach,trials");
 }
 
 TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
@@ -61,7 +61,7 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,not_estimable,"
         "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
         "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
-        "false_reach");
+        "false_reach,trials");
 }
 
 TEST_CASE("every documented column is in results/README.md") {
