@@ -26,7 +26,8 @@ namespace locind::app {
 using EventsOrError = std::variant<sim::EventData, Errors>;
 
 // Streams `data` in the event file format, events merged across processes in
-// time order (ties broken by process order).
+// time order (ties broken by process order). REQUIRES: one trial (a data set
+// of several trials is written as a folder: WriteEventTrials, trial_folder.h).
 void WriteEventCsv(const sim::EventData& data, std::ostream& out);
 std::string FormatEventCsv(const sim::EventData& data);
 
