@@ -167,4 +167,15 @@ const char* PathMethodName(PathMethod method) {
   return method == PathMethod::kEuler ? "euler" : "exact";
 }
 
+Result<PathData> SimulateDiffusionTrials(const DiffusionModel& model, const PathRunOptions& options,
+                                         int trials, base::RandomStream& random) {
+  PathData out;
+  for (int k = 0; k < trials; ++k) {
+    Result<PathData> one = SimulateDiffusion(model, options, random);
+    if (!one.ok()) return one.status();
+    AppendTrial(out, one.value());
+  }
+  return out;
+}
+
 }  // namespace locind::sim

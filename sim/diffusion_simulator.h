@@ -44,6 +44,12 @@ struct PathRunOptions {
 Result<PathData> SimulateDiffusion(const DiffusionModel& model, const PathRunOptions& options,
                                    base::RandomStream& random);
 
+// Draws `trials` independent trials one after the other from `random`, as one
+// data set with PathData::trial_starts (one trial: exactly SimulateDiffusion).
+// REQUIRES: trials >= 1.
+Result<PathData> SimulateDiffusionTrials(const DiffusionModel& model, const PathRunOptions& options,
+                                         int trials, base::RandomStream& random);
+
 const char* PathMethodName(PathMethod method);
 
 }  // namespace locind::sim

@@ -91,4 +91,15 @@ const char* HawkesMethodName(HawkesMethod method) {
   return "?";
 }
 
+Result<EventData> SimulateHawkesTrials(const HawkesModel& model, const HawkesRunOptions& options,
+                                       int trials, base::RandomStream& random) {
+  EventData out;
+  for (int k = 0; k < trials; ++k) {
+    Result<EventData> one = SimulateHawkes(model, options, random);
+    if (!one.ok()) return one.status();
+    AppendTrial(out, one.value());
+  }
+  return out;
+}
+
 }  // namespace locind::sim

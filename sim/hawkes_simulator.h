@@ -52,6 +52,13 @@ struct HawkesRunOptions {
 Result<EventData> SimulateHawkes(const HawkesModel& model, const HawkesRunOptions& options,
                                  base::RandomStream& random);
 
+// Draws `trials` independent trials (each a fresh draw with its own burn-in,
+// on [0, horizon)) one after the other from `random`, as one data set with
+// EventData::trials (one trial: exactly SimulateHawkes). The event cap
+// applies per trial. REQUIRES: trials >= 1.
+Result<EventData> SimulateHawkesTrials(const HawkesModel& model, const HawkesRunOptions& options,
+                                       int trials, base::RandomStream& random);
+
 const char* HawkesMethodName(HawkesMethod method);
 
 }  // namespace locind::sim

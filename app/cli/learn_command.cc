@@ -35,6 +35,7 @@
 #include "app/io/graph_file.h"
 #include "app/io/graph_json.h"
 #include "app/io/path_csv.h"
+#include "app/io/trial_folder.h"
 #include "app/io/svg_render.h"
 #include "graph/dot_format.h"
 #include "learners/independence/drift_test.h"
@@ -109,10 +110,8 @@ struct Inputs {
   std::unique_ptr<sim::PathData> paths;
 };
 
-void LoadEvents(const LearnOptions& o, Inputs& in) {
-  EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<Errors>(&read)) throw *e;
-  in.events = std::make_unique<sim::EventData>(std::get<sim::EventData>(std::move(read)));
+void LoadEvents(const LearnOptions& o, Inputs& in, std::ostream& err) {
+  in.events = std::make_unique<sim::EventData>(LoadEventTrials(o.data, "locind learn", err));
   if (!o.test.empty() && !IsEventTestName(o.test)) {
     throw UsageError{"unknown test '" + o.test + "' for event data (" + EventTestList() + ")"};
   }
@@ -124,7 +123,7 @@ void LoadEvents(const LearnOptions& o, Inputs& in) {
 }
 
 void LoadPaths(const LearnOptions& o, Inputs& in) {
-  PathsOrError read = ReadPathCsvFile(o.data);
+  PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
   if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
@@ -135,7 +134,7 @@ void LoadPaths(const LearnOptions& o, Inputs& in) {
   in.test = std::move(made.value());
 }
 
-Inputs LoadInputs(const LearnOptions& o) {
+Inputs LoadInputs(const LearnOptions& o, std::ostream& err) {
   Inputs in;
   if (!o.oracle.empty()) {
     if (!o.test.empty() && o.test != "oracle") {
@@ -150,7 +149,7 @@ Inputs LoadInputs(const LearnOptions& o) {
     return in;
   }
   if (DecideDataKind(o.data, o.kind) == DataKind::kEvents) {
-    LoadEvents(o, in);
+    LoadEvents(o, in, err);
   } else {
     LoadPaths(o, in);
   }
@@ -237,7 +236,7 @@ int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   const LearnOptions o = ParseOptions(args);
   if (o.list) return ListMethods(out);
   const learners::MethodEntry* entry = learners::FindMethod(o.method);
-  Inputs in = LoadInputs(o);
+  Inputs in = LoadInputs(o, err);
   learners::MethodSettings settings;
   settings.screening_size = o.screening_size;
   settings.penalty = o.penalty;

@@ -35,6 +35,7 @@
 #include "app/io/event_csv.h"
 #include "app/io/graph_json.h"
 #include "app/io/path_csv.h"
+#include "app/io/trial_folder.h"
 #include "learners/independence/drift_test.h"
 #include "learners/independence/hawkes_features.h"
 #include "learners/independence/hawkes_lr_test.h"
@@ -85,10 +86,8 @@ std::vector<double> ParseRates(const TestOptions& o) {
   return rates;
 }
 
-std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
-  EventsOrError read = ReadEventCsvFile(o.data);
-  if (auto* e = std::get_if<Errors>(&read)) throw *e;
-  sim::EventData data = std::get<sim::EventData>(std::move(read));
+std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o, std::ostream& err) {
+  sim::EventData data = LoadEventTrials(o.data, "locind test", err);
   std::vector<double> rates = ParseRates(o);
   if (rates.empty()) rates = learners::DefaultHawkesRates(data);
   auto features = learners::HawkesFeatures::Create(std::move(data), rates);
@@ -100,7 +99,7 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o) {
 }
 
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
-  PathsOrError read = ReadPathCsvFile(o.data);
+  PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
     throw UsageError{"unknown test '" + o.test + "' for paths (" + PathTestNames() + ")"};
@@ -209,7 +208,7 @@ int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   if (!events && !o.rates.empty() && (o.test.empty() || o.test == "drift-exact-lr")) {
     throw UsageError{"--rates is not used by drift-exact-lr; leave it out"};
   }
-  std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o) : PathTest(o);
+  std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o, err) : PathTest(o);
   const learners::TestQuery query = MakeQuery(*test, o);
   WarnWithoutTargetPast(test->names(), query, err);
   const learners::TestResult result = test->Run(query);

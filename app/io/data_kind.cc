@@ -4,6 +4,7 @@
 
 #include "app/io/error.h"
 #include "app/io/event_csv.h"
+#include "app/io/trial_folder.h"
 
 namespace locind::app {
 namespace {
@@ -28,6 +29,10 @@ DataKind DecideDataKind(const std::string& path, const std::string& kind) {
   if (kind == "events") return DataKind::kEvents;
   if (kind == "paths") return DataKind::kPaths;
   if (!kind.empty()) throw UsageError{"--kind must be events or paths"};
+  // A folder of trials: its first file decides.
+  if (const std::vector<std::string> files = TrialFiles(path); !files.empty()) {
+    return DecideDataKind(files.front(), kind);
+  }
   std::ifstream in(path);
   if (!in) throw Error{path, 0, 0, "", "cannot open the file"};
   std::string header;

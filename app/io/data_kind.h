@@ -9,7 +9,8 @@ namespace locind::app {
 
 enum class DataKind { kEvents, kPaths };
 
-// `kind` "events" or "paths" decides; "" decides from the file's first line
+// `kind` "events" or "paths" decides; "" decides from the file's (for a
+// folder of trials, its first file's) first line
 // that is not a '#' comment: exactly "time,process" is an event file,
 // "time,X,Y,..." (two or more process columns) a path file. Throws Error
 // (FILE:LINE:COLUMN: header: ...) naming both headers when the line is

@@ -178,7 +178,8 @@ void WriteEventCsv(const sim::EventData& data, std::ostream& out) {
   out.write(text.data(), std::streamsize(text.size()));
 }
 
-EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
+EventsOrError ReadEventCsv(std::istream& in, const std::string& file,
+                           std::vector<std::string>* notes) {
   Reader r{file};
   Parsed p;
   bool header = false;
@@ -218,28 +219,30 @@ EventsOrError ReadEventCsv(std::istream& in, const std::string& file) {
         Error{file, 0, 0, "processes", "no process: no events and no '# processes:' line"}};
   }
   if (!p.window) {
-    p.data.start = 0;
-    p.data.end = std::isfinite(last) ? std::max(last, 0.0) : 0.0;
-    const bool negative =
-        std::any_of(p.data.times.begin(), p.data.times.end(),
-                    [](const std::vector<double>& t) { return !t.empty() && t.front() < 0; });
-    if (negative) {
-      return Errors{
-          Error{file, 0, 0, "window", "negative times need a '# window:' line"}};
+    // No window line: the window is [first event, last event] (a shift of
+    // every time then shifts the window with it), and the caller is told.
+    double first = INFINITY;
+    for (const std::vector<double>& t : p.data.times) {
+      if (!t.empty()) first = std::min(first, t.front());
     }
-    if (!(p.data.end > p.data.start)) {
-      return Errors{
-          Error{file, 0, 0, "window",
-                     "the window [0, last event time] is empty; give a '# window:' line"}};
+    if (!(std::isfinite(first) && last > first)) {
+      return Errors{Error{file, 0, 0, "window",
+                          "the window [first event, last event] is empty; give a '# window:' line"}};
+    }
+    p.data.start = first;
+    p.data.end = last;
+    if (notes != nullptr) {
+      notes->push_back(file + ": no '# window:' line, using [first event, last event] = [" +
+                       base::FormatNumber(first) + ", " + base::FormatNumber(last) + "]");
     }
   }
   return std::move(p.data);
 }
 
-EventsOrError ReadEventCsvFile(const std::string& path) {
+EventsOrError ReadEventCsvFile(const std::string& path, std::vector<std::string>* notes) {
   std::ifstream in(path);
   if (!in) return Errors{Error{path, 0, 0, "", "cannot open the file"}};
-  return ReadEventCsv(in, path);
+  return ReadEventCsv(in, path, notes);
 }
 
 }  // namespace locind::app

@@ -3,6 +3,7 @@
 //
 //   # processes: x1,x2,x3      optional: every process, also those without events
 //   # window: 0,100            optional: the observation window start,end
+//                              (default: first event to last event)
 //   time,process               header
 //   0.1250000000000000,x2      one event per line, sorted by time (ties allowed)
 //
@@ -25,7 +26,8 @@ namespace locind::app {
 using EventsOrError = std::variant<sim::EventData, Errors>;
 
 // Streams `data` in the event file format, events merged across processes in
-// time order (ties broken by process order).
+// time order (ties broken by process order). REQUIRES: one trial (a data set
+// of several trials is written as a folder: WriteEventTrials, trial_folder.h).
 void WriteEventCsv(const sim::EventData& data, std::ostream& out);
 std::string FormatEventCsv(const sim::EventData& data);
 
@@ -33,9 +35,12 @@ std::string FormatEventCsv(const sim::EventData& data);
 // lines before the header stops reading; problems in event lines are all
 // reported (up to kMaxErrors), in file order. Without the
 // processes line, processes are named in order of first appearance; without
-// the window line, the window is [0, last event time], which must not be empty.
-EventsOrError ReadEventCsv(std::istream& in, const std::string& file);
-EventsOrError ReadEventCsvFile(const std::string& path);
+// the window line, the window is [first event, last event], which must not be
+// empty, and a note saying so is appended to `notes` (when given) for the
+// caller to print on stderr.
+EventsOrError ReadEventCsv(std::istream& in, const std::string& file,
+                           std::vector<std::string>* notes = nullptr);
+EventsOrError ReadEventCsvFile(const std::string& path, std::vector<std::string>* notes = nullptr);
 
 // Pieces shared by the CSV readers and writers of app/.
 namespace csv {

@@ -15,4 +15,6 @@ locind_layer(locind_io
     app/io/path_csv.cc
     app/io/process_id.cc
     app/io/svg_render.cc
+    app/io/trial_folder.cc
+    app/io/window_check.cc
 )

@@ -83,6 +83,10 @@ std::vector<std::pair<std::string, std::string>> StudyRows(const StudySpec& stud
     rows.push_back({"hidden counts", JoinNumbers(h)});
   }
   if (!study.grid.stationarity.empty()) rows.push_back({"stationarity targets", JoinNumbers(study.grid.stationarity)});
+  if (!study.grid.trials.empty()) {
+    rows.push_back({"trials per replicate", JoinNumbers(std::vector<double>(study.grid.trials.begin(), study.grid.trials.end())) +
+                                                " (each of the observation length)"});
+  }
   std::string learners;
   for (const LearnerSpec& l : study.learners) learners += (learners.empty() ? "" : "; ") + l.label;
   rows.push_back({"learners", learners});
@@ -90,15 +94,23 @@ std::vector<std::pair<std::string, std::string>> StudyRows(const StudySpec& stud
 }
 
 // The other grid factors of a summary line: one set of curves per value.
-using GroupKey = std::tuple<double, int, double>;  // level, hidden count, target (NaN: none)
+// level, hidden count, target (NaN: none), trials (0: the same in every cell)
+using GroupKey = std::tuple<double, int, double, int>;
 
-GroupKey GroupOf(const SummaryLine& s) {
-  return {s.level, s.hidden_count, s.stationarity_target.value_or(NAN)};
+// True when the cells differ in their number of trials (grid.trials).
+bool TrialsVary(const ReportData& data) {
+  return std::any_of(data.summary.begin(), data.summary.end(),
+                     [&data](const SummaryLine& s) { return s.trials != data.summary.front().trials; });
+}
+
+GroupKey GroupOf(const SummaryLine& s, bool trials_vary) {
+  return {s.level, s.hidden_count, s.stationarity_target.value_or(NAN), trials_vary ? s.trials : 0};
 }
 
 std::string GroupText(const GroupKey& g) {
   std::string text = "level " + Num(std::get<0>(g)) + ", " + std::to_string(std::get<1>(g)) + " hidden";
   if (!std::isnan(std::get<2>(g))) text += ", stationarity target " + Num(std::get<2>(g));
+  if (std::get<3>(g) > 0) text += ", " + std::to_string(std::get<3>(g)) + (std::get<3>(g) == 1 ? " trial" : " trials");
   return text;
 }
 
@@ -112,11 +124,13 @@ int StyleOf(const StudySpec& study, const std::string& learner) {
 // Summary lines grouped by the other factors, in order of first appearance.
 std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const ReportData& data) {
   std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> groups;
+  const bool vary = TrialsVary(data);
   for (const SummaryLine& s : data.summary) {
-    const GroupKey key = GroupOf(s);
+    const GroupKey key = GroupOf(s, vary);
     auto it = std::find_if(groups.begin(), groups.end(), [&key](const auto& g) {
       return std::get<0>(g.first) == std::get<0>(key) && std::get<1>(g.first) == std::get<1>(key) &&
-             (std::get<2>(g.first) == std::get<2>(key) || (std::isnan(std::get<2>(g.first)) && std::isnan(std::get<2>(key))));
+             (std::get<2>(g.first) == std::get<2>(key) || (std::isnan(std::get<2>(g.first)) && std::isnan(std::get<2>(key)))) &&
+             std::get<3>(g.first) == std::get<3>(key);
     });
     if (it == groups.end()) {
       groups.push_back({key, {}});
@@ -129,6 +143,9 @@ std::vector<std::pair<GroupKey, std::vector<const SummaryLine*>>> Groups(const R
 
 // A plan belongs on the panel of its own combination only.
 bool PlanFitsGroup(const PlanLine& p, const GroupKey& g) {
+  // A plan of the number of trials is drawn on the trials panels only.
+  if (p.searched != "length") return false;
+  if (p.trials && std::get<3>(g) > 0 && *p.trials != std::get<3>(g)) return false;
   const double target = std::get<2>(g);
   return p.Fits(std::get<0>(g), std::get<1>(g), std::isnan(target) ? std::nullopt : std::optional<double>(target));
 }
@@ -263,6 +280,81 @@ void AddRateFigures(const StudySpec& study, const ReportData& data, const GroupK
       "95% cluster-bootstrap intervals. Undefined where nothing was reported." + plan_note, false_edges));
   AddGroupFigures(study, group, lines, suffix, section);
 }
+
+// ---- Number of trials (grid.trials): power and false edges against it ----
+
+// Lines of one panel: the same level, hidden count, target and trial length.
+using TrialPanelKey = std::tuple<double, int, double, double>;
+
+std::vector<std::pair<TrialPanelKey, std::vector<const SummaryLine*>>> TrialPanels(const ReportData& data) {
+  std::vector<std::pair<TrialPanelKey, std::vector<const SummaryLine*>>> panels;
+  for (const SummaryLine& s : data.summary) {
+    const TrialPanelKey key{s.level, s.hidden_count, s.stationarity_target.value_or(NAN), s.length};
+    auto same = [&key](const auto& p) {
+      const TrialPanelKey& k = p.first;
+      return std::get<0>(k) == std::get<0>(key) && std::get<1>(k) == std::get<1>(key) &&
+             (std::get<2>(k) == std::get<2>(key) || (std::isnan(std::get<2>(k)) && std::isnan(std::get<2>(key)))) &&
+             std::get<3>(k) == std::get<3>(key);
+    };
+    auto it = std::find_if(panels.begin(), panels.end(), same);
+    if (it == panels.end()) it = panels.insert(panels.end(), {key, {}});
+    it->second.push_back(&s);
+  }
+  return panels;
+}
+
+std::vector<PlotSeries> TrialSeries(const StudySpec& study, const std::vector<const SummaryLine*>& lines, Pick pick) {
+  std::vector<PlotSeries> series = SeriesOf(study, lines, pick);
+  for (PlotSeries& s : series) {
+    s.points.clear();
+    for (const SummaryLine* line : lines) {
+      const metrics::Interval& v = line->*pick;
+      if (line->learner != s.label || std::isnan(v.estimate)) continue;
+      s.points.push_back({double(line->trials), v.estimate, v.low, v.high});
+    }
+    std::sort(s.points.begin(), s.points.end(), [](const PlotPoint& a, const PlotPoint& b) { return a.x < b.x; });
+  }
+  return series;
+}
+
+void AddTrialFigures(const StudySpec& study, const ReportData& data, ReportSection& section) {
+  const auto panels = TrialPanels(data);
+  for (size_t i = 0; i < panels.size(); ++i) {
+    const auto& [key, lines] = panels[i];
+    const GroupKey group{std::get<0>(key), std::get<1>(key), std::get<2>(key), 0};
+    const std::string where = GroupText(group) + ", trials of length " + Num(std::get<3>(key));
+    const std::string suffix = panels.size() > 1 ? "-t" + std::to_string(i + 1) : "";
+    LinePlot power;
+    power.title = "Power, " + where;
+    power.x_label = "number of trials";
+    power.y_label = "power (solid edges of N found)";
+    power.unit_range = true;
+    power.series = TrialSeries(study, lines, &SummaryLine::power);
+    LinePlot false_edges = power;
+    false_edges.title = "False-edge rate, " + where;
+    false_edges.y_label = "false-edge rate (reported edges not in N)";
+    false_edges.series = TrialSeries(study, lines, &SummaryLine::false_edge_rate);
+    for (const PlanLine& p : data.plan) {
+      if (p.searched != "trials" || !p.reached) continue;
+      const GroupKey plain{std::get<0>(key), std::get<1>(key), std::get<2>(key), 0};
+      PlanLine as_length = p;
+      as_length.searched = "length";
+      if (PlanFitsGroup(as_length, plain)) power.marks.push_back({StyleOf(study, p.learner), p.length});
+    }
+    false_edges.marks = power.marks;
+    const std::string note = power.marks.empty() ? "" : " Dotted verticals: each learner's planned number of trials.";
+    section.figures.push_back(PlotFigure(
+        "power-trials" + suffix, "Power against number of trials (" + where + ")",
+        "The same cells as above, against the number of independent trials each replicate recorded; bands "
+        "are 95% cluster-bootstrap intervals." + note, power));
+    section.figures.push_back(PlotFigure(
+        "false-edges-trials" + suffix, "False-edge rate against number of trials (" + where + ")",
+        "Share of reported edges that are not in N, against the number of trials; bands are 95% "
+        "cluster-bootstrap intervals." + note, false_edges));
+  }
+}
+
+// ---- end number of trials ----
 
 void AddCostFigures(const StudySpec& study, const GroupKey& group, const std::vector<const SummaryLine*>& lines,
                     const std::string& suffix, ReportSection& section) {
@@ -452,10 +544,10 @@ void AddTruthDrawings(const StudyTruths& truths, ReportSection& section) {
 // The longest length of the first group, and the cell there.
 const Cell* DrawnCell(const std::vector<Cell>& cells, const ReportData& data) {
   if (data.summary.empty()) return nullptr;
-  const GroupKey first = GroupOf(data.summary.front());
+  const GroupKey first = GroupOf(data.summary.front(), false);
   const Cell* best = nullptr;
   for (const SummaryLine& s : data.summary) {
-    const GroupKey g = GroupOf(s);
+    const GroupKey g = GroupOf(s, false);
     if (std::get<0>(g) != std::get<0>(first) || std::get<1>(g) != std::get<1>(first)) continue;
     if (s.cell < 0 || s.cell >= static_cast<int>(cells.size())) continue;
     if (best == nullptr || cells[s.cell].length > best->length) best = &cells[s.cell];
@@ -530,6 +622,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
     AddLostFigures(study, data, groups[g].first, groups[g].second, suffix, lost);
     AddCostFigures(study, groups[g].first, groups[g].second, suffix, cost);
   }
+  if (TrialsVary(data)) AddTrialFigures(study, data, rates);
   ReportSection drawings{"graphs", "Graphs", "", {}};
   AddTruthDrawings(truths, drawings);
   ReportSection learned{"learned", "Learned graphs", "", {}};

@@ -156,6 +156,7 @@ void ReadSummary(const Table& t, ReportData& d) {
     s.level = t.Number(i, "level");
     s.hidden_count = t.Whole(i, "hidden_count");
     if (!t.Text(i, "stationarity_target").empty()) s.stationarity_target = t.Number(i, "stationarity_target");
+    if (t.Has("trials")) s.trials = t.Whole(i, "trials");
     s.learner = t.Text(i, "learner");
     s.replicates = t.Whole(i, "replicates");
     s.failed = t.Whole(i, "failed");
@@ -219,6 +220,8 @@ void ReadPlan(const Table& t, ReportData& d) {
     if (t.Has("stationarity_target") && !t.Text(i, "stationarity_target").empty()) {
       p.stationarity_target = t.Number(i, "stationarity_target");
     }
+    if (t.Has("searched")) p.searched = t.Text(i, "searched");
+    if (t.Has("trials") && !t.Text(i, "trials").empty()) p.trials = t.Whole(i, "trials");
     d.plan.push_back(std::move(p));
   }
 }

@@ -22,6 +22,7 @@ struct SummaryLine {
   double level = 0;
   int hidden_count = 0;
   std::optional<double> stationarity_target;
+  int trials = 1;  // column trials (summary.csv from before it: 1)
   std::string learner;
   int replicates = 0;
   int failed = 0;
@@ -76,6 +77,10 @@ struct PlanLine {
   std::optional<double> level;
   std::optional<int> hidden_count;
   std::optional<double> stationarity_target;
+  // What was searched (column searched; "length" when absent) and, for a
+  // length search, the combination's number of trials (column trials).
+  std::string searched = "length";
+  std::optional<int> trials;
   // True when the plan is for this combination (the panel of a report); a
   // plan without the combination columns fits every combination.
   bool Fits(double panel_level, int panel_hidden_count, std::optional<double> panel_target) const;

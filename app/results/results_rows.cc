@@ -54,6 +54,7 @@ std::string BuildReplicateHeader() {
        "tests,not_estimable,largest_given,"
        "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds";
   h += AttributionHeader();
+  h += ",trials";
   return h;
 }
 
@@ -140,7 +141,7 @@ const std::string& SummaryHeader() {
       SummaryScoreColumns() +
       "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,"
       "not_estimable" +
-      AttributionHeader();
+      AttributionHeader() + ",trials";
   return header;
 }
 
@@ -164,13 +165,14 @@ std::string FormatReplicateRow(const ReplicateRow& r) {
     << Num(r.timing_score_seconds);
   metrics::ErrorAttribution a = r.attribution;
   for (int* v : AttributionFields(a)) o << "," << *v;
+  o << "," << r.trials;
   return o.str();
 }
 
 std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   const std::vector<std::string> f = SplitCommas(line);
   constexpr size_t kCounts = 8 * (1 + metrics::kEdgeGroups);
-  if (f.size() != 14 + kCounts + 14 + kAttributionColumns) return std::nullopt;
+  if (f.size() != 14 + kCounts + 14 + kAttributionColumns + 1) return std::nullopt;
   ReplicateRow r;
   double target = 0;
   bool ok = ReadInt(f[0], r.cell) && ReadInt(f[1], r.replicate) && ReadNumber(f[3], r.length) &&
@@ -204,6 +206,7 @@ std::optional<ReplicateRow> ParseReplicateRow(const std::string& line) {
   r.score.class_recovered = recovered != 0;
   i += 7;
   for (int* v : AttributionFields(r.attribution)) ok = ok && ReadInt(f[i++], *v);
+  ok = ok && ReadInt(f[i], r.trials) && r.trials >= 1;
   if (!ok) return std::nullopt;
   return r;
 }
@@ -243,6 +246,7 @@ std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
   o << "," << s.not_estimable;
   metrics::ErrorAttribution a = s.attribution;
   for (int* v : AttributionFields(a)) o << "," << *v;
+  o << "," << cell.trials;
   return o.str();
 }
 

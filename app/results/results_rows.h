@@ -52,6 +52,8 @@ struct ReplicateRow {
   // --- Why edges were lost (metrics/error_attribution.h): counts only; the
   // columns come after the timing columns ---
   metrics::ErrorAttribution attribution;
+  // --- Trials (grid.trials): the last column ---
+  int trials = 1;  // independent trials of `length` each
 };
 
 // Everything one unit (cell x replicate) produced, in learner order.

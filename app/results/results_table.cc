@@ -36,8 +36,11 @@ std::string SummaryTable(const StudySpec& study, const std::vector<Cell>& cells,
                        IntervalText(s.power), IntervalText(s.false_edge_rate),
                        IntervalText(s.class_recovery), std::isnan(s.tests.estimate) ? "-" : tests,
                        std::to_string(s.failed) + "/" + std::to_string(s.replicates)});
+      if (!study.grid.trials.empty()) table.back().insert(table.back().begin() + 1, std::to_string(c.trials));
     }
   }
+  // A number-of-trials factor (grid.trials) gets its own column after length.
+  if (!study.grid.trials.empty()) table[0].insert(table[0].begin() + 1, "trials");
   std::vector<size_t> width(table[0].size(), 0);
   for (const auto& row : table) {
     for (size_t i = 0; i < row.size(); ++i) width[i] = std::max(width[i], row[i].size());

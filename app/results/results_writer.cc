@@ -249,7 +249,7 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
     o << (i ? ",\n    " : "\n    ") << "{\"cell\": " << c.index << ", \"label\": " << JsonString(c.label)
       << ", \"key\": \"" << c.key << "\", \"data_key\": \"" << c.data_key << "\", \"length\": " << Num(c.length) << ", \"level\": " << Num(c.level)
       << ", \"hidden_count\": " << c.hidden_count
-      << ", \"stationarity_target\": " << OptionalNumber(c.stationarity) << "}";
+      << ", \"stationarity_target\": " << OptionalNumber(c.stationarity) << ", \"trials\": " << c.trials << "}";
   }
   o << "\n  ],\n  \"learners\": [";
   for (size_t i = 0; i < study.learners.size(); ++i) {

@@ -76,8 +76,10 @@ Simulated SimulateEvents(const StudySpec& study, const PreparedTruth& truth, con
   sim::HawkesRunOptions run;
   run.horizon = cell.length;
   run.burn_in = study.event_process.burn_in;
-  run.event_cap = EventCap(study, static_cast<int>(truth.truth.Observed().size()));
-  Result<sim::EventData> data = sim::SimulateHawkes(built->model, run, random);
+  // The memory cap holds the whole replicate: shared among its trials.
+  run.event_cap = std::max<int64_t>(1, EventCap(study, static_cast<int>(truth.truth.Observed().size())) / cell.trials);
+  // Several trials (grid.trials): successive draws from this replicate's stream.
+  Result<sim::EventData> data = sim::SimulateHawkesTrials(built->model, run, cell.trials, random);
   if (!data.ok()) {
     s.failure = "simulation: " + data.status().message();
     if (run.event_cap < study.event_process.event_cap) {
@@ -114,7 +116,7 @@ Simulated SimulatePaths(const StudySpec& study, const PreparedTruth& truth, cons
                 " samples x processes need more than memory_mb: " + std::to_string(study.memory_mb);
     return s;
   }
-  Result<sim::PathData> data = sim::SimulateDiffusion(built->model, run, random);
+  Result<sim::PathData> data = sim::SimulateDiffusionTrials(built->model, run, cell.trials, random);
   if (!data.ok()) {
     s.failure = "simulation: " + data.status().message();
     return s;
@@ -307,6 +309,7 @@ UnitResult RunUnit(const StudySpec& study, const Cell& cell, const StudyTruths& 
   base.length = cell.length;
   base.level = cell.level;
   base.hidden_count = cell.hidden_count;
+  base.trials = cell.trials;
   base.stationarity_target = cell.stationarity;
 
   std::vector<int> chosen = learner_indices;

@@ -38,7 +38,11 @@ class LengthSearch {
   const PlanStep& Evaluate(double length) {
     auto it = steps_.find(length);
     if (it != steps_.end()) return it->second;
-    Cell cell = MakeCell(study_, length, at_.level, at_.hidden_factor, at_.stationarity);
+    // Along trials, `length` counts trials of the first grid length.
+    Cell cell = study_.plan.along_trials
+                    ? MakeCell(study_, study_.grid.lengths.front(), at_.level, at_.hidden_factor,
+                               at_.stationarity, static_cast<int>(length))
+                    : MakeCell(study_, length, at_.level, at_.hidden_factor, at_.stationarity, at_.trials);
     cell.index = 0;
     std::vector<Unit> units;
     for (int r = 0; r < study_.grid.replicates; ++r) units.push_back(Unit{0, r});
@@ -50,7 +54,7 @@ class LengthSearch {
     PlanStep step{length, SummarizeCell(study_, cell, learner_, ordered), false};
     step.meets = MeetsTargets(step.summary, targets_);
     if (log_) {
-      log_("plan: " + study_.learners[learner_].label + Where() + " at length " + Num(length) + ": power " +
+      log_("plan: " + study_.learners[learner_].label + Where() + (study_.plan.along_trials ? " at trials " : " at length ") + Num(length) + ": power " +
            IntervalText(step.summary.power) + ", false-edge rate " +
            IntervalText(step.summary.false_edge_rate) + (step.meets ? " (meets)" : ""));
     }
@@ -61,10 +65,11 @@ class LengthSearch {
     LearnerPlan plan;
     plan.learner = study_.learners[learner_].label;
     plan.at = at_;
-    const double start = study_.plan.start > 0 ? study_.plan.start
-                         : *std::min_element(study_.grid.lengths.begin(), study_.grid.lengths.end());
-    plan.cap = study_.plan.cap > 0 ? study_.plan.cap
-               : 64 * *std::max_element(study_.grid.lengths.begin(), study_.grid.lengths.end());
+    plan.searched = study_.plan.along_trials ? "trials" : "length";
+    if (study_.plan.along_trials) plan.trial_length = study_.grid.lengths.front();
+    const std::vector<double> values = SearchedValues();
+    const double start = study_.plan.start > 0 ? study_.plan.start : *std::min_element(values.begin(), values.end());
+    plan.cap = study_.plan.cap > 0 ? study_.plan.cap : 64 * *std::max_element(values.begin(), values.end());
     double failed = 0, met = 0;
     for (double length = std::min(start, plan.cap);; length = std::min(2 * length, plan.cap)) {
       if (Evaluate(length).meets) {
@@ -76,7 +81,7 @@ class LengthSearch {
     }
     if (met > 0 && failed > 0) {
       for (int i = 0; i < study_.plan.bisection_steps; ++i) {
-        const double mid = Round3((failed + met) / 2);
+        const double mid = study_.plan.along_trials ? std::floor((failed + met) / 2) : Round3((failed + met) / 2);
         if (mid <= failed || mid >= met) break;
         (Evaluate(mid).meets ? met : failed) = mid;
       }
@@ -89,6 +94,13 @@ class LengthSearch {
   }
 
  private:
+  // The grid values of the searched quantity (lengths, or numbers of trials).
+  std::vector<double> SearchedValues() const {
+    if (!study_.plan.along_trials) return study_.grid.lengths;
+    if (study_.grid.trials.empty()) return {1};
+    return std::vector<double>(study_.grid.trials.begin(), study_.grid.trials.end());
+  }
+
   void Bounds(LearnerPlan& plan) const {
     for (const PlanStep& s : plan.steps) {
       const metrics::CellSummary& m = s.summary;
@@ -135,15 +147,20 @@ std::string PlanCombination::Text() const {
   std::string text = "level " + Num(level);
   if (hidden_factor >= 0) text += ", " + std::to_string(hidden_count) + " hidden";
   if (stationarity) text += ", stationarity target " + Num(*stationarity);
+  if (trials > 0) text += ", " + std::to_string(trials) + " trials";
   return text;
 }
 
 std::vector<PlanCombination> PlanCombinations(const StudySpec& study) {
   std::vector<PlanCombination> out;
   // The grid's own cells at one length give every combination in grid order.
+  const bool trial_factor = !study.grid.trials.empty() && !study.plan.along_trials;
   for (const Cell& c : ExpandGrid(study)) {
     if (c.length != study.grid.lengths.front()) continue;
-    out.push_back(PlanCombination{c.hidden_factor, c.hidden_count, c.stationarity, c.level});
+    // Along trials the number of trials is searched, not a combination.
+    if (!trial_factor && !study.grid.trials.empty() && c.trials != study.grid.trials.front()) continue;
+    out.push_back(PlanCombination{c.hidden_factor, c.hidden_count, c.stationarity, c.level,
+                                  trial_factor ? c.trials : 0});
   }
   return out;
 }
@@ -168,10 +185,11 @@ bool Narrow(const std::string& item, std::vector<PlanCombination>& combos) {
     const bool match = key == "level"    ? c.level == value
                        : key == "hidden" ? c.hidden_factor >= 0 && c.hidden_count == value
                        : key == "target" ? c.stationarity && *c.stationarity == value
+                       : key == "trials" ? c.trials > 0 && c.trials == value
                                          : false;
     if (match) kept.push_back(c);
   }
-  if (key != "level" && key != "hidden" && key != "target") return false;
+  if (key != "level" && key != "hidden" && key != "target" && key != "trials") return false;
   combos = kept;
   return true;
 }
@@ -188,7 +206,7 @@ Result<std::vector<PlanCombination>> PickCombinations(const StudySpec& study, co
   for (const PlanCombination& c : all) list += (list.empty() ? "" : "; ") + c.Text();
   for (std::string item; items >> item;) {
     if (!Narrow(item, combos)) {
-      return Status::Error("cannot read '" + item + "' (expected hidden=N, target=X or level=X)");
+      return Status::Error("cannot read '" + item + "' (expected hidden=N, target=X, level=X or trials=N)");
     }
   }
   if (combos.empty()) return Status::Error("no combination of the study matches '" + choice + "' (the study has: " + list + ")");
@@ -223,14 +241,14 @@ std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets&
       const PlanStep& best = *std::max_element(p.steps.begin(), p.steps.end(), [](const PlanStep& a, const PlanStep& b) {
         return a.summary.power.estimate < b.summary.power.estimate;
       });
-      out << p.learner << ": no length up to " << Num(p.cap) << " reaches the targets (best power "
-          << IntervalText(best.summary.power) << " at length " << Num(best.length)
+      out << p.learner << ": no " << p.searched << " up to " << Num(p.cap) << " reaches the targets (best power "
+          << IntervalText(best.summary.power) << " at " << p.searched << " " << Num(best.length)
           << ", false-edge rate there " << IntervalText(best.summary.false_edge_rate) << ")\n";
       continue;
     }
     const PlanStep& at = *std::find_if(p.steps.begin(), p.steps.end(),
                                        [&p](const PlanStep& s) { return s.length == p.length; });
-    out << p.learner << ": length " << Num(p.length) << " (replicate uncertainty: from "
+    out << p.learner << ": " << p.searched << " " << Num(p.length) << " (replicate uncertainty: from "
         << (std::isnan(p.optimistic) ? "?" : Num(p.optimistic)) << " to "
         << (std::isnan(p.conservative) ? "beyond " + Num(p.steps.back().length) : Num(p.conservative))
         << "); power there " << IntervalText(at.summary.power) << ", false-edge rate "
@@ -242,7 +260,7 @@ std::string PlanReport(const std::vector<LearnerPlan>& plans, const PlanTargets&
 const std::string& PlanHeader() {
   static const std::string header =
       "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
-      "conservative_length,cap,level,hidden_count,stationarity_target";
+      "conservative_length,cap,level,hidden_count,stationarity_target,searched,trials,trial_length";
   return header;
 }
 
@@ -252,7 +270,11 @@ std::string PlanCsv(const std::vector<LearnerPlan>& plans, const PlanTargets& ta
     out += CleanText(p.learner) + "," + Num(targets.power) + "," + Num(targets.false_edges) + "," +
            (p.reached ? "yes" : "no") + "," + (p.reached ? Num(p.length) : "") + "," + Num(p.optimistic) +
            "," + Num(p.conservative) + "," + Num(p.cap) + "," + Num(p.at.level) + "," +
-           std::to_string(p.at.hidden_count) + "," + (p.at.stationarity ? Num(*p.at.stationarity) : "") + "\n";
+           std::to_string(p.at.hidden_count) + "," + (p.at.stationarity ? Num(*p.at.stationarity) : "") + "," +
+           // Trials block: what was searched; the trials of the combination
+           // (searched length) or the trial length (searched trials).
+           p.searched + "," + (p.searched == "trials" ? "" : std::to_string(std::max(1, p.at.trials))) + "," +
+           (p.searched == "trials" ? Num(p.trial_length) : "") + "\n";
   }
   return out;
 }

@@ -35,12 +35,22 @@
 
 namespace locind::app {
 
-// One combination of the grid factors other than length.
+// One combination of the grid factors other than the searched one (length,
+// or the number of trials under plan.along: trials).
+//
+// plan.along: trials searches the number of trials, each of the first grid
+// length, the same way (doubling from plan.start or the smallest grid.trials
+// value, default 1, up to plan.cap or 64 x the largest; bisection on whole
+// numbers); PlanStep::length and LearnerPlan::length/optimistic/conservative/
+// cap then count trials.
 struct PlanCombination {
   int hidden_factor = -1;  // grid hidden-count value; -1: no such factor
   int hidden_count = 0;    // hidden processes of the truths
   std::optional<double> stationarity;
   double level = 0.05;
+  // Number of trials (grid.trials) when searching along length; 0: no such
+  // factor, or plan.along: trials (the searched quantity).
+  int trials = 0;
   // "level 0.05, 2 hidden, stationarity target 0.6" (factors absent from the grid left out, except level)
   std::string Text() const;
 };
@@ -73,6 +83,8 @@ struct LearnerPlan {
   double conservative = NAN;
   double cap = 0;
   std::vector<PlanStep> steps;  // sorted by length
+  std::string searched = "length";  // or "trials" (plan.along): what length/optimistic/conservative/cap count
+  double trial_length = NAN;        // searched trials: the length of each trial
 };
 
 // Point estimates meet both targets (no reported edge counts as no false edge).

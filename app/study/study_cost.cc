@@ -33,7 +33,7 @@ double ExpectedEvents(const StudySpec& study, const PreparedTruth& truth, const 
            "): its replicates fail with a message";
     return 0;
   }
-  return rates->sum() * (study.event_process.burn_in + cell.length);
+  return rates->sum() * (study.event_process.burn_in + cell.length) * cell.trials;
 }
 
 // A diffusion truth whose drift is unstable, as a note (empty when stable).
@@ -73,7 +73,7 @@ double BytesPerEvent(const StudySpec& study, int observed) {
 double BytesPerSample() { return 4 * 8; }
 
 double PathPoints(const StudySpec& study, const Cell& cell, int observed) {
-  return (std::floor(cell.length / study.path_process.interval) + 1) * observed;
+  return (std::floor(cell.length / study.path_process.interval) + 1) * observed * cell.trials;
 }
 
 int64_t EventCap(const StudySpec& study, int observed) {

@@ -381,7 +381,7 @@ class StudyParser {
     const std::string s = "grid";
     GridSpec o;
     if (!CheckKeys(g, s, {"lengths", "replicates", "levels", "hidden", "hidden_mode", "spectral_radius",
-                          "drift_bound"})) {
+                          "drift_bound", "trials"})) {
       return o;
     }
     constexpr double kInf = std::numeric_limits<double>::infinity();
@@ -412,6 +412,8 @@ class StudyParser {
     if (g["spectral_radius"] && g["drift_bound"]) {
       Fail(g["drift_bound"], "grid.drift_bound", "give spectral_radius or drift_bound, not both");
     }
+    // Number of trials factor (whole numbers from 1).
+    if (g["trials"]) o.trials = NumberList<int>(g, "trials", s, 1, 1'000'000, false, false, true);
     return o;
   }
 
@@ -535,12 +537,13 @@ class StudyParser {
 
   PlanSpec ParsePlan(const YAML::Node& p) {
     PlanSpec o;
-    if (!CheckKeys(p, "plan", {"start", "cap", "bisection_steps"})) return o;
+    if (!CheckKeys(p, "plan", {"start", "cap", "bisection_steps", "along"})) return o;
     constexpr double kInf = std::numeric_limits<double>::infinity();
     o.start = Bounded(p, "start", "plan", 0, 0, kInf, true, true);
     o.cap = Bounded(p, "cap", "plan", 0, 0, kInf, true, true);
     o.bisection_steps = Whole(p, "bisection_steps", "plan", o.bisection_steps, 0, 20);
     if (o.start > 0 && o.cap > 0 && o.cap < o.start) Fail(p["cap"], "plan.cap", "must be >= plan.start");
+    if (p["along"]) o.along_trials = Word(p, "along", "plan", {"length", "trials"}) == "trials";
     return o;
   }
 

@@ -1,4 +1,7 @@
 #include "app/study/study_grid.h"
+
+#include <algorithm>
+
 #include "base/hashing.h"
 #include "base/number_format.h"
 
@@ -15,7 +18,7 @@ std::string TruthLabel(int hidden_factor, int index) {
 }
 
 Cell MakeCell(const StudySpec& study, double length, double level, int hidden_factor,
-              std::optional<double> stationarity) {
+              std::optional<double> stationarity, int trials) {
   Cell c;
   c.index = -1;
   c.length = length;
@@ -33,6 +36,8 @@ Cell MakeCell(const StudySpec& study, double length, double level, int hidden_fa
   std::string rest;
   if (hidden_factor >= 0) rest += " hidden=" + std::to_string(hidden_factor);
   if (stationarity) rest += " target=" + base::FormatNumber(*stationarity);
+  if (trials > 0) rest += " trials=" + std::to_string(trials);
+  c.trials = std::max(1, trials);
   c.label = "length=" + base::FormatNumber(length) + " level=" + base::FormatNumber(level) + rest;
   c.key = base::HashText(c.label);
   // Paired levels: the level is left out of the data key.
@@ -48,14 +53,17 @@ std::vector<Cell> ExpandGrid(const StudySpec& study) {
   if (targets.empty()) {
     targets.push_back(study.events ? study.event_process.spectral_radius : study.path_process.drift_bound);
   }
+  const std::vector<int> trials = g.trials.empty() ? std::vector<int>{0} : g.trials;
   std::vector<Cell> cells;
   for (int h : hidden) {
     for (const auto& target : targets) {
       for (double level : g.levels) {
-        for (double length : g.lengths) {
-          Cell c = MakeCell(study, length, level, h, target);
-          c.index = static_cast<int>(cells.size());
-          cells.push_back(c);
+        for (int n : trials) {
+          for (double length : g.lengths) {
+            Cell c = MakeCell(study, length, level, h, target, n);
+            c.index = static_cast<int>(cells.size());
+            cells.push_back(c);
+          }
         }
       }
     }

@@ -39,18 +39,21 @@ struct Cell {
   int hidden_factor = -1;              // grid hidden-count value; -1: the truth's own
   int hidden_count = 0;                // hidden processes of the cell's truths
   std::optional<double> stationarity;  // spectral radius or drift bound target, if any
+  int trials = 1;                      // trials per replicate, each of `length`
   std::string label;
   uint64_t key = 0;       // hash of label: summaries
   uint64_t data_key = 0;  // hash of label without the level: data and test draws
 };
 
 // Cells in grid order: hidden count, then stationarity target, then level,
-// then length (fastest).
+// then number of trials (grid.trials), then length (fastest).
 std::vector<Cell> ExpandGrid(const StudySpec& study);
 
 // One cell with the given factor values (index -1); used by the planner.
+// `trials` > 0 is a value of the number-of-trials factor (" trials=N" in the
+// label and keys); 0: no such factor, one trial (labels and keys unchanged).
 Cell MakeCell(const StudySpec& study, double length, double level, int hidden_factor,
-              std::optional<double> stationarity);
+              std::optional<double> stationarity, int trials = 0);
 
 // The key and drawing label of truth `index` under a hidden-count factor.
 uint64_t TruthKey(int hidden_factor);

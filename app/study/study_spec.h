@@ -96,6 +96,10 @@ struct GridSpec {
   bool hidden_fixed_observed = false;
   std::vector<double> stationarity;      // spectral radius or drift bound targets; empty: the process's own
   int replicates = 10;
+  // Number of trials factor (grid.trials): each replicate records that many
+  // independent trials of `length` each. Empty: one trial, and no factor
+  // (cell labels, keys and data as without the key).
+  std::vector<int> trials;
 };
 
 // Settings for `locind plan`.
@@ -103,6 +107,10 @@ struct PlanSpec {
   double start = 0;  // first length tried; 0: the smallest grid length
   double cap = 0;    // largest length tried; 0: 64 times the largest grid length
   int bisection_steps = 4;
+  // What plan searches along (plan.along): the trial length ("length", the
+  // default) or the number of trials ("trials", at each grid length; start
+  // and cap then count trials).
+  bool along_trials = false;
 };
 
 struct StudySpec {

@@ -21,7 +21,7 @@ std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
 
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count) {
   double dt = 1;
-  if (data.samples() >= 2) dt = (data.time.back() - data.time.front()) / (data.samples() - 1);
+  if (data.increments() >= 1) dt = data.observed_time() / data.increments();
   std::vector<double> rates;
   for (int k = 0; k < count; ++k) rates.push_back(1 / (dt * std::pow(10.0, k + 1)));
   return rates;
@@ -35,7 +35,9 @@ std::vector<double> DefaultDriftRates(const sim::PathData& data, int count) {
 // with a 10-time-unit filter, 7% without it). Only rates whose time constant
 // fits kMinFilterWindows times into the window are kept.
 std::vector<double> SupportedDriftRates(const sim::PathData& data, const std::vector<double>& rates) {
-  const double window = data.samples() >= 2 ? data.time.back() - data.time.front() : 0;
+  // With several trials a filter restarts at each trial: the mean trial
+  // length is the window it must fit into.
+  const double window = data.samples() >= 2 ? data.observed_time() / data.trial_count() : 0;
   std::vector<double> kept;
   for (double r : rates) {
     if (window * r >= kMinFilterWindows) kept.push_back(r);
@@ -48,9 +50,16 @@ Status ValidatePathData(const sim::PathData& data) {
   if (data.values.rows() != data.samples() || data.values.cols() != data.processes()) {
     return Status::Error("the value matrix must have one row per sample and one column per name");
   }
+  for (size_t k = 0; k < data.trial_starts.size(); ++k) {
+    const int first = data.trial_starts[k], previous = k ? data.trial_starts[k - 1] : 0;
+    if (first - previous < 2 || first > data.samples() - 2) {
+      return Status::Error("every trial needs at least two samples, in order");
+    }
+  }
   for (int i = 0; i < data.samples(); ++i) {
-    if (!std::isfinite(data.time[i]) || (i > 0 && !(data.time[i] > data.time[i - 1]))) {
-      return Status::Error("sample times must be finite and strictly increasing");
+    const bool restart = i == 0 || data.starts_trial(i);
+    if (!std::isfinite(data.time[i]) || (!restart && !(data.time[i] > data.time[i - 1]))) {
+      return Status::Error("sample times must be finite and strictly increasing within a trial");
     }
   }
   if (!data.values.allFinite()) return Status::Error("values must be finite");
@@ -92,8 +101,12 @@ const Eigen::MatrixXd& DriftTest::Columns(int process) {
     double filtered = data_.values(0, process);
     c(0, 1 + k) = filtered;
     for (Eigen::Index i = 1; i < n; ++i) {
-      const double a = std::exp(-options_.rates[k] * (data_.time[i] - data_.time[i - 1]));
-      filtered = a * filtered + (1 - a) * data_.values(i - 1, process);
+      if (data_.starts_trial(int(i))) {
+        filtered = data_.values(i, process);  // a new trial: the filter restarts at its first value
+      } else {
+        const double a = std::exp(-options_.rates[k] * (data_.time[i] - data_.time[i - 1]));
+        filtered = a * filtered + (1 - a) * data_.values(i - 1, process);
+      }
       c(i, 1 + k) = filtered;
     }
   }
@@ -101,23 +114,31 @@ const Eigen::MatrixXd& DriftTest::Columns(int process) {
 }
 
 Eigen::MatrixXd DriftTest::Design(const std::vector<int>& covariates) {
-  const Eigen::Index n = data_.samples() - 1;
+  const std::vector<int> rows = data_.increment_rows();
+  const Eigen::Index n = Eigen::Index(rows.size());
   const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
   Eigen::MatrixXd x(n, 1 + Eigen::Index(covariates.size()) * width);
   x.col(0).setOnes();
   for (size_t c = 0; c < covariates.size(); ++c) {
-    x.middleCols(1 + Eigen::Index(c) * width, width) = Columns(covariates[c]);
+    const Eigen::MatrixXd& columns = Columns(covariates[c]);
+    for (Eigen::Index r = 0; r < n; ++r) {
+      x.row(r).segment(1 + Eigen::Index(c) * width, width) = columns.row(rows[size_t(r)]);
+    }
   }
-  for (Eigen::Index i = 0; i < n; ++i) x.row(i) *= std::sqrt(data_.time[i + 1] - data_.time[i]);
+  for (Eigen::Index r = 0; r < n; ++r) {
+    const int i = rows[size_t(r)];
+    x.row(r) *= std::sqrt(data_.time[size_t(i) + 1] - data_.time[size_t(i)]);
+  }
   return x;
 }
 
 Eigen::VectorXd DriftTest::Response(int target) const {
-  const Eigen::Index n = data_.samples() - 1;
-  Eigen::VectorXd y(n);
-  for (Eigen::Index i = 0; i < n; ++i) {
-    y[i] = (data_.values(i + 1, target) - data_.values(i, target)) /
-           std::sqrt(data_.time[i + 1] - data_.time[i]);
+  const std::vector<int> rows = data_.increment_rows();
+  Eigen::VectorXd y(Eigen::Index(rows.size()));
+  for (size_t r = 0; r < rows.size(); ++r) {
+    const Eigen::Index i = rows[r];
+    y[Eigen::Index(r)] = (data_.values(i + 1, target) - data_.values(i, target)) /
+                         std::sqrt(data_.time[size_t(i) + 1] - data_.time[size_t(i)]);
   }
   return y;
 }
@@ -161,7 +182,8 @@ const DriftTest::Moments& DriftTest::SharedMoments() {
   const int processes = data_.processes();
   std::vector<int> all(static_cast<size_t>(processes));
   for (int j = 0; j < processes; ++j) all[size_t(j)] = j;
-  const Eigen::Index n = data_.samples() - 1;
+  const std::vector<int> steps = data_.increment_rows();  // no increment spans two trials
+  const Eigen::Index n = Eigen::Index(steps.size());
   const Eigen::Index width = 1 + Eigen::Index(options_.rates.size());
   const Eigen::Index cols = 1 + processes * width;
   Moments m{Eigen::MatrixXd::Zero(cols, cols), Eigen::MatrixXd::Zero(cols, processes),
@@ -174,12 +196,13 @@ const DriftTest::Moments& DriftTest::SharedMoments() {
     Eigen::MatrixXd w(rows, cols);
     Eigen::MatrixXd y(rows, processes);
     for (Eigen::Index i = 0; i < rows; ++i) {
-      const double dt = data_.time[r0 + i + 1] - data_.time[r0 + i];
+      const Eigen::Index s = steps[size_t(r0 + i)];
+      const double dt = data_.time[size_t(s) + 1] - data_.time[size_t(s)];
       const double root = std::sqrt(dt);
       w(i, 0) = root;
       for (int j = 0; j < processes; ++j) {
-        w.row(i).segment(1 + j * width, width) = root * columns_.at(j).row(r0 + i);
-        y(i, j) = (data_.values(r0 + i + 1, j) - data_.values(r0 + i, j)) / root;
+        w.row(i).segment(1 + j * width, width) = root * columns_.at(j).row(s);
+        y(i, j) = (data_.values(s + 1, j) - data_.values(s, j)) / root;
       }
     }
     m.gram.selfadjointView<Eigen::Lower>().rankUpdate(w.transpose());
@@ -238,7 +261,7 @@ TestResult DriftTest::FTest(const TestQuery& q, const std::vector<int>& full) {
   if (!rss_kept) return NotEstimable("singular design: the history features are collinear");
   TestResult r;
   r.df = double(full_cols.size() - kept_cols.size());
-  const double df2 = double(data_.samples() - 1) - double(full_cols.size());
+  const double df2 = double(data_.increments()) - double(full_cols.size());
   r.statistic = std::max(0.0, (*rss_kept - *rss_full) / r.df / (*rss_full / df2));
   r.p_value = FSurvival(r.df, df2, r.statistic);
   return r;
@@ -246,7 +269,7 @@ TestResult DriftTest::FTest(const TestQuery& q, const std::vector<int>& full) {
 
 TestResult DriftTest::Compute(const TestQuery& q) {
   const std::vector<int> full = Union(q.sources, q.given);
-  const Eigen::Index n = data_.samples() - 1;
+  const Eigen::Index n = data_.increments();
   const Eigen::Index p = 1 + Eigen::Index(full.size()) * (1 + Eigen::Index(options_.rates.size()));
   if (n < p + 10) {
     return NotEstimable("too few samples: " + std::to_string(n) + " increments for " +

@@ -12,6 +12,10 @@
 // the regressors multiplied by sqrt(dt_i), so unequal spacings give
 // homoskedastic errors and the coefficients are drift coefficients.
 //
+// Several trials (sim::PathData::trial_starts): rows are the increments within
+// trials, stacked; the filters restart at each trial's first sample
+// (F = X there); no increment spans two trials.
+//
 // Tests of the |A| * (1 + K) A-coefficients:
 //   * kF (default): nested-model F test, F = ((RSS_r - RSS_f)/q) /
 //     (RSS_f/(n - p)) on (q, n - p) degrees of freedom (asymptotic here: the
@@ -61,14 +65,16 @@ struct DriftTestOptions {
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count = 2);
 
 // The rates r of `rates` whose time constant 1/r fits at least
-// kMinFilterWindows times into the window t_n - t_0 (possibly none: then the
+// kMinFilterWindows times into the window t_n - t_0 (with trials: the mean
+// trial length) (possibly none: then the
 // drift uses current levels only). Applied to the default rates only; rates
 // given in the options are used as given.
 inline constexpr double kMinFilterWindows = 50;
 std::vector<double> SupportedDriftRates(const sim::PathData& data, const std::vector<double>& rates);
 
-// Checks: at least 2 samples, strictly increasing finite times, finite values,
-// one column per name.
+// Checks: at least 2 samples, strictly increasing finite times (within each
+// trial; every trial with at least 2 samples), finite values, one column per
+// name.
 Status ValidatePathData(const sim::PathData& data);
 
 // Ordinary least squares by Householder QR with column pivoting; the
@@ -91,8 +97,8 @@ class DriftTest : public IndependenceTest {
   std::string kind() const override;
   TestResult Run(const TestQuery& query) override;
 
-  // The weighted design [1, X_j, F_j1..F_jK for j in covariates] (rows i =
-  // 0..n-1) and response y of `target` (exposed for tests).
+  // The weighted design [1, X_j, F_j1..F_jK for j in covariates] (one row
+  // per increment within a trial, PathData::increment_rows) and response y of `target` (exposed for tests).
   Eigen::MatrixXd Design(const std::vector<int>& covariates);
   Eigen::VectorXd Response(int target) const;
 

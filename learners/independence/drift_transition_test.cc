@@ -238,12 +238,15 @@ Result<DriftTransitionTest> DriftTransitionTest::Create(sim::PathData data, Drif
 
 const std::vector<DriftTransitionTest::SpacingMoments>& DriftTransitionTest::Moments() {
   if (moments_) return *moments_;
-  const Eigen::Index n = data_.samples() - 1, p = data_.processes();
+  const Eigen::Index p = data_.processes();
+  const std::vector<int> steps = data_.increment_rows();  // no step spans two trials
+  const size_t n = steps.size();
   // Group the steps by spacing.
-  std::vector<int> group(size_t(n), 0);
+  std::vector<int> group(n, 0);
   std::vector<SpacingMoments> out;
-  for (Eigen::Index i = 0; i < n; ++i) {
-    const double step = data_.time[size_t(i) + 1] - data_.time[size_t(i)];
+  for (size_t r = 0; r < n; ++r) {
+    const size_t i = size_t(steps[r]);
+    const double step = data_.time[i + 1] - data_.time[i];
     size_t g = 0;
     while (g < out.size() && std::abs(step - out[g].step) > kSpacingTolerance * out[g].step) ++g;
     if (g == out.size()) {
@@ -253,18 +256,20 @@ const std::vector<DriftTransitionTest::SpacingMoments>& DriftTransitionTest::Mom
       }
       out.push_back({step, 0, Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p)});
     }
-    group[size_t(i)] = int(g);
+    group[r] = int(g);
     out[g].count += 1;
   }
   // Two passes (means, then centred sums) for accuracy.
   std::vector<Eigen::VectorXd> zbar(out.size(), Eigen::VectorXd::Zero(p)), ybar = zbar;
-  for (Eigen::Index i = 0; i < n; ++i) {
-    zbar[size_t(group[size_t(i)])] += data_.values.row(i).transpose();
-    ybar[size_t(group[size_t(i)])] += data_.values.row(i + 1).transpose();
+  for (size_t r = 0; r < n; ++r) {
+    const Eigen::Index i = steps[r];
+    zbar[size_t(group[r])] += data_.values.row(i).transpose();
+    ybar[size_t(group[r])] += data_.values.row(i + 1).transpose();
   }
   for (size_t g = 0; g < out.size(); ++g) zbar[g] /= out[g].count, ybar[g] /= out[g].count;
-  for (Eigen::Index i = 0; i < n; ++i) {
-    const size_t g = size_t(group[size_t(i)]);
+  for (size_t r = 0; r < n; ++r) {
+    const Eigen::Index i = steps[r];
+    const size_t g = size_t(group[r]);
     const Eigen::VectorXd z = data_.values.row(i).transpose() - zbar[g];
     const Eigen::VectorXd y = data_.values.row(i + 1).transpose() - ybar[g];
     out[g].zz.noalias() += z * z.transpose();
@@ -319,7 +324,7 @@ TestResult DriftTransitionTest::Run(const TestQuery& query) {
 TestResult DriftTransitionTest::Compute(const TestQuery& q) {
   const std::vector<int> coords = Union(Union(q.sources, q.given), {q.target});
   const Eigen::Index d = Eigen::Index(coords.size());
-  const Eigen::Index n = data_.samples() - 1;
+  const Eigen::Index n = data_.increments();
   if (n < d * (d + 2) + 10) {
     return NotEstimable("too few samples: " + std::to_string(n) + " increments for " + std::to_string(d) +
                         " coordinates");

@@ -28,6 +28,9 @@
 // kMaxDistinctSpacings distinct spacings are handled (one transition each);
 // more give "not estimable: irregular sampling".
 //
+// Several trials (sim::PathData::trial_starts): the transitions of every trial
+// enter one likelihood (log-likelihoods add); no step spans two trials.
+//
 // Not estimable: fewer than d (d + 2) + 10 increments for d = |V|
 // ("too few samples"), a coordinate that never moves ("perfect fit"), a
 // singular Euler start ("singular design"), a fit that does not converge

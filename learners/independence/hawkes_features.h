@@ -14,6 +14,14 @@
 // 4^(k - (K-1)/2) / tau, k = 0..K-1; for K = 3 that is {1/(4 tau), 1/tau,
 // 4/tau}. A user may give any positive rates instead.
 //
+// Several trials (sim::EventData::trials): every filter restarts empty at
+// each trial's start and no event of one trial enters another's features;
+// rows of AtEvents and the grid are stacked trial after trial, and the
+// integrals add over trials, so a likelihood built from them is the sum of
+// the trials' likelihoods. For consumers that need one time axis (a running
+// sum along time), trials are laid end to end on a "stacked clock": trial k
+// starts where trial k-1 ends (a one-trial data set keeps its own clock).
+//
 // Blocks are computed on first use and kept; the object is not thread-safe.
 // ComputeAll() fills the event and integral blocks, but the quadrature grid
 // used by the signed test is still built lazily: give each thread its own
@@ -38,7 +46,8 @@ std::vector<double> DefaultHawkesRates(const sim::EventData& data, int count = 3
 
 // Checks what the features assume: end > start, every times[i] sorted and in
 // [start, end] (an event at the end is allowed: readers may set end to the
-// last event), one name per stream.
+// last event), one name per stream; with trials, the same within each trial,
+// at least two trials and one start index per process, non-decreasing.
 Status ValidateEventData(const sim::EventData& data);
 
 class HawkesFeatures {
@@ -57,8 +66,15 @@ class HawkesFeatures {
   const Eigen::MatrixXd& AtEvents(int target, int source);
   // K-vector of integrals over the window: sum_s (1 - exp(-r_k (end - s))).
   const Eigen::VectorXd& Integrals(int source);
-  // x_jk at arbitrary sorted `times` (left limits); not cached.
-  Eigen::MatrixXd Evaluate(int source, const std::vector<double>& times) const;
+  // x_jk at arbitrary sorted `times` (left limits) of trial `trial`, on that
+  // trial's clock, from that trial's events only; not cached.
+  Eigen::MatrixXd Evaluate(int source, const std::vector<double>& times, int trial = 0) const;
+  // Events of `process` on the stacked clock (its own times for one trial).
+  const std::vector<double>& StackedTimes(int process);
+  // Offset of trial k on the stacked clock: stacked = own - start_k + offset.
+  double StackedOffset(int trial) const;
+  // Trial of each event of `process`, in the order of data().times[process].
+  std::vector<int> TrialOfEvents(int process) const;
 
   // A quadrature grid for integrals over the window of smooth functions of
   // the features (used by the signed-effects model, whose compensator has no
@@ -67,9 +83,13 @@ class HawkesFeatures {
   // carries 3-point Gauss-Legendre nodes (Abramowitz & Stegun 1964, Table
   // 25.4). Between events the features are sums of exponentials, so the rule
   // error per part is about (r h)^6 / 2e6 <= 5e-7 relative (r h <= 1).
+  // With several trials each trial is cut separately; `times` is on the
+  // stacked clock (sorted), `trial` names each node's trial.
   struct Grid {
-    std::vector<double> times;  // sorted nodes
+    std::vector<double> times;  // sorted nodes (stacked clock)
     Eigen::VectorXd weights;
+    std::vector<int> trial;     // trial of each node
+    std::vector<double> own;    // the nodes on their trial's own clock
   };
   const Grid& QuadratureGrid();
   // grid size x K: features of `source` at the grid nodes.
@@ -90,6 +110,7 @@ class HawkesFeatures {
   std::map<int, Eigen::VectorXd> integrals_;
   std::optional<Grid> grid_;
   std::map<int, Eigen::MatrixXd> at_grid_;
+  std::map<int, std::vector<double>> stacked_;
 };
 
 }  // namespace locind::learners

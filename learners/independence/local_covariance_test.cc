@@ -54,6 +54,33 @@ Eigen::MatrixXd Filters(const std::vector<double>& events, double start,
   return out;
 }
 
+// Filters of `process` at `rates` at the sorted `times` of the stacked clock
+// (HawkesFeatures), `trial[i]` naming the trial of times[i]: each trial's
+// filters start empty at its start and see only its own events, so no
+// history crosses a trial boundary (one trial: Filters on the data's clock).
+Eigen::MatrixXd TrialFilters(HawkesFeatures& f, int process, const std::vector<double>& rates,
+                             const std::vector<double>& times, const std::vector<int>& trial) {
+  const sim::EventData& data = f.data();
+  if (data.trial_count() == 1) return Filters(data.times[size_t(process)], data.start, rates, times);
+  Eigen::MatrixXd out(Eigen::Index(times.size()), Eigen::Index(rates.size()));
+  size_t begin = 0;
+  while (begin < times.size()) {
+    const int k = trial[begin];
+    size_t stop = begin;
+    while (stop < times.size() && trial[stop] == k) ++stop;
+    const double shift = f.StackedOffset(k) - data.trial_start(k);
+    std::vector<double> events;
+    for (size_t i = data.trial_begin(k, process); i < data.trial_stop(k, process); ++i) {
+      events.push_back(data.times[size_t(process)][i] + shift);
+    }
+    const std::vector<double> part(times.begin() + long(begin), times.begin() + long(stop));
+    out.middleRows(Eigen::Index(begin), Eigen::Index(stop - begin)) =
+        Filters(events, f.StackedOffset(k), rates, part);
+    begin = stop;
+  }
+  return out;
+}
+
 // The nuisance rates: `count` rates spaced geometrically from the slowest
 // shared rate / `span` to the fastest shared rate (count <= 0: the shared
 // rates themselves).
@@ -82,9 +109,9 @@ struct Basis {
 
 Basis NuisanceBasis(HawkesFeatures& f, int target, const std::vector<int>& given,
                     const std::vector<double>& rates, bool quadratic) {
-  const sim::EventData& data = f.data();
   const HawkesFeatures::Grid& grid = f.QuadratureGrid();
-  const std::vector<double>& at = data.times[target];
+  const std::vector<double>& at = f.StackedTimes(target);
+  const std::vector<int> at_trial = f.TrialOfEvents(target);
   const Eigen::Index k_count = Eigen::Index(rates.size());
   const Eigen::Index linear = Eigen::Index(given.size()) * k_count;
   Eigen::MatrixXd sg = GridColumns(f, given), se = EventColumns(f, target, given);
@@ -95,11 +122,10 @@ Basis NuisanceBasis(HawkesFeatures& f, int target, const std::vector<int>& given
   z.grid.col(0).setOnes();
   z.events.col(0).setOnes();
   for (size_t j = 0; j < given.size(); ++j) {
-    const std::vector<double>& ev = data.times[given[j]];
     z.grid.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
-        Filters(ev, data.start, rates, grid.times);
+        TrialFilters(f, given[j], rates, grid.times, grid.trial);
     z.events.middleCols(1 + Eigen::Index(j) * k_count, k_count) =
-        Filters(ev, data.start, rates, at);
+        TrialFilters(f, given[j], rates, at, at_trial);
   }
   if (products == 0) return z;
   // Standardise by the time-weighted mean and spread over the window (a
@@ -149,6 +175,12 @@ std::vector<int> Folds(const std::vector<double>& times, const std::vector<doubl
     fold[i] = int(k % folds);
   }
   return fold;
+}
+
+// Fold of each trial index: the index modulo the number of folds.
+std::vector<int> ModuloOf(std::vector<int> trial, int folds) {
+  for (int& k : trial) k %= folds;
+  return trial;
 }
 
 // Least-squares nuisance coefficients fitted on one fold: columns 0..d-1 of
@@ -269,21 +301,33 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
       return Status::Error("singular design: source '" + data.names[a] + "' has no events");
     }
   }
-  // Blocks: several time constants of the slowest filter in use (shared or
-  // nuisance), at least 2.
+  const HawkesFeatures::Grid& grid = f.QuadratureGrid();
+  const int folds = options_.folds;
   const std::vector<double> rates =
       NuisanceRates(f.rates(), options_.nuisance_rates, options_.nuisance_span);
-  const double slowest = std::min(*std::min_element(f.rates().begin(), f.rates().end()),
-                                  *std::min_element(rates.begin(), rates.end()));
-  const double window = data.end - data.start;
-  const int folds = options_.folds;
-  const int blocks =
-      std::max(folds, int(std::floor(window * slowest / options_.block_time_constants)));
-  const std::vector<double> boundaries = BlockBoundaries(data, blocks);
-
-  const HawkesFeatures::Grid& grid = f.QuadratureGrid();
-  const std::vector<int> grid_fold = Folds(grid.times, boundaries, folds);
-  const std::vector<int> event_fold = Folds(data.times[q.target], boundaries, folds);
+  int blocks = 0;
+  std::vector<double> boundaries;  // block ends on the (stacked) clock
+  std::vector<int> grid_fold, event_fold;
+  if (data.trial_count() >= 2) {
+    // Several trials: the trials are the replications and the blocks;
+    // cross-fit on the trial index modulo the folds (no block spans two
+    // trials), and the batch-means blocks end where each trial ends on the
+    // stacked clock.
+    blocks = data.trial_count();
+    for (int k = 1; k < blocks; ++k) boundaries.push_back(f.StackedOffset(k));
+    grid_fold = ModuloOf(grid.trial, folds);
+    event_fold = ModuloOf(f.TrialOfEvents(q.target), folds);
+  } else {
+    // Blocks: several time constants of the slowest filter in use (shared
+    // or nuisance), at least as many as folds.
+    const double slowest = std::min(*std::min_element(f.rates().begin(), f.rates().end()),
+                                    *std::min_element(rates.begin(), rates.end()));
+    const double window = data.end - data.start;
+    blocks = std::max(folds, int(std::floor(window * slowest / options_.block_time_constants)));
+    boundaries = BlockBoundaries(data, blocks);
+    grid_fold = Folds(grid.times, boundaries, folds);
+    event_fold = Folds(data.times[q.target], boundaries, folds);
+  }
   int fewest = int(event_fold.size());
   for (int k = 0; k < folds; ++k) {
     fewest = std::min(fewest, int(std::count(event_fold.begin(), event_fold.end(), k)));
@@ -337,7 +381,7 @@ Result<LocalCovarianceEstimate> LocalCovarianceTest::Estimate(const TestQuery& q
     }
   }
   LocalCovarianceEstimate e =
-      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, data.times[q.target], g_events,
+      Accumulate(grid.times, grid.weights, g_grid, lambda_grid, f.StackedTimes(q.target), g_events,
                  boundaries);
   e.blocks = blocks;
   return e;

@@ -37,7 +37,10 @@
 // with t_i the events of b. Long blocks keep a fold's nuisance fit nearly
 // independent of the other folds' data, which the paper obtains from
 // independent replications; the cost is that each nuisance is fitted on half
-// (a third) of the window.
+// (a third) of the window. With several trials (sim::EventData::trials) the
+// trials are those replications: trial k is in fold k modulo the number of
+// folds, `blocks` is the number of trials, and gamma_hat runs along the
+// trials laid end to end (HawkesFeatures' stacked clock).
 //
 // Statistic and reference (LocalCovarianceStatistic):
 //   * kSupremum (default, the paper's test): per component j,

@@ -93,5 +93,22 @@ TEST_CASE("stability refusals name the cause") {
   CHECK(CheckStable(m).message().find("node x2 has no mean reversion") != std::string::npos);
 }
 
+TEST_CASE("path trials are successive draws, stacked with their starts marked") {
+  DiffusionModel m = LinearDiffusion(Graph({"x1", "x2"}, {{0, 0}, {1, 1}, {0, 1}}), 1.0, 0.5, 1.0);
+  PathRunOptions o;
+  o.horizon = 5;
+  o.step = 0.01;
+  o.interval = 0.1;
+  base::RandomStream random(19), same(19);
+  const Result<PathData> trials = SimulateDiffusionTrials(m, o, 2, random);
+  REQUIRE(trials.ok());
+  CHECK(trials->trial_starts == std::vector<int>{51});
+  CHECK(trials->increments() == 100);
+  const PathData first = SimulateDiffusion(m, o, same).value();
+  const PathData second = SimulateDiffusion(m, o, same).value();
+  CHECK(trials->values.topRows(51) == first.values);
+  CHECK(trials->values.bottomRows(51) == second.values);
+}
+
 }  // namespace
 }  // namespace locind::sim

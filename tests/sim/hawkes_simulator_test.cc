@@ -328,5 +328,30 @@ TEST_CASE("time-rescaling KS rejects at its nominal rate over 60 seeds") {
   CHECK(RescalingRejections(MixedModel(), HawkesMethod::kCluster, 60, 800) <= 11);
 }
 
+TEST_CASE("trials are successive independent draws from the replicate's stream") {
+  HawkesRunOptions o;
+  o.horizon = 50;
+  o.burn_in = 10;
+  base::RandomStream random(17), same(17);
+  const Result<EventData> trials = SimulateHawkesTrials(CycleModel(), o, 3, random);
+  REQUIRE(trials.ok());
+  REQUIRE(trials->trial_count() == 3);
+  CHECK(trials->duration() == 150);
+  // Trial k is the k-th draw of SimulateHawkes from the same stream.
+  for (int k = 0; k < 3; ++k) {
+    const EventData one = SimulateHawkes(CycleModel(), o, same).value();
+    for (int i = 0; i < 3; ++i) {
+      const std::vector<double>& t = trials->times[size_t(i)];
+      CHECK(std::vector<double>(t.begin() + long(trials->trial_begin(k, i)),
+                                t.begin() + long(trials->trial_stop(k, i))) == one.times[size_t(i)]);
+    }
+    CHECK(trials->trial_start(k) == 0);
+    CHECK(trials->trial_end(k) == 50);
+  }
+  // One trial is exactly SimulateHawkes.
+  base::RandomStream a(18), b(18);
+  CHECK(SimulateHawkesTrials(CycleModel(), o, 1, a)->times == SimulateHawkes(CycleModel(), o, b)->times);
+}
+
 }  // namespace
 }  // namespace locind::sim

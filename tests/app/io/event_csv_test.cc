@@ -45,7 +45,15 @@ TEST_CASE("event file without metadata: names in order of appearance") {
   const auto& e = std::get<sim::EventData>(read);
   CHECK(e.names == std::vector<std::string>{"b", "a"});
   CHECK(e.times[0] == std::vector<double>{1, 2.5});
+  // No window line: [first event, last event], and a note says so.
+  CHECK(e.start == 1);
   CHECK(e.end == 2.5);
+  std::vector<std::string> notes;
+  std::istringstream in("time,process\n5001,b\n5002,a\n");
+  const EventsOrError shifted = ReadEventCsv(in, "ev.csv", &notes);
+  CHECK(std::get<sim::EventData>(shifted).start == 5001);
+  REQUIRE(notes.size() == 1);
+  CHECK(notes[0] == "ev.csv: no '# window:' line, using [first event, last event] = [5001, 5002]");
 }
 
 TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
@@ -72,10 +80,10 @@ TEST_CASE("event file errors carry FILE:LINE:COLUMN: FIELD") {
   CHECK(ErrorOf("# window: 0,1\n# window: 0,2\n") == "ev.csv:2:1: window: given twice");
   CHECK(ErrorOf("# window: 0,1e999\n") == "ev.csv:1:13: window: expected a finite number");
   CHECK(ErrorOf("time,process\n-1,a\n") ==
-        "ev.csv: window: negative times need a '# window:' line");
-  // Found by fuzzing: a negative first time followed by positive ones.
-  CHECK(ErrorOf("time,process\n-.5,a\n2,a\n") ==
-        "ev.csv: window: negative times need a '# window:' line");
+        "ev.csv: window: the window [first event, last event] is empty; give a '# window:' line");
+  // Found by fuzzing: a negative first time followed by positive ones (a
+  // window from the first event now).
+  CHECK(std::get<sim::EventData>(Read("time,process\n-.5,a\n2,a\n")).start == -0.5);
 }
 
 TEST_CASE("event file: every bad event line is reported, one line each") {
@@ -95,9 +103,9 @@ TEST_CASE("event file: empty files, empty windows, huge values and control chara
   CHECK(ErrorOf("# window: 0,100\ntime,process\n") ==
         "ev.csv: processes: no process: no events and no '# processes:' line");
   CHECK(ErrorOf("# processes: a\ntime,process\n") ==
-        "ev.csv: window: the window [0, last event time] is empty; give a '# window:' line");
+        "ev.csv: window: the window [first event, last event] is empty; give a '# window:' line");
   CHECK(ErrorOf("# processes: a\ntime,process\n0,a\n") ==
-        "ev.csv: window: the window [0, last event time] is empty; give a '# window:' line");
+        "ev.csv: window: the window [first event, last event] is empty; give a '# window:' line");
   // Huge but finite times are values; 1e999 overflows a double and is refused.
   const EventsOrError huge = Read("time,process\n1e300,a\n1.7976931348623157e308,a\n");
   REQUIRE(std::holds_alternative<sim::EventData>(huge));

@@ -35,8 +35,8 @@ struct Folder {
                              "0.6,0.4,0.8,5,3,0,0,0,4,0,"
                              "0.4,0.2,0.6,5,2,0,0,0,2,0,"
                              ",,,0,0,,,,0,0,"
-                             // seconds, then not_estimable and the ten attribution counts
-                             "0.01,0.005,0.02,0,7,1,0,2,2,1,0,0,0,0\n");
+                             // seconds, then not_estimable, the ten attribution counts and trials
+                             "0.01,0.005,0.02,0,7,1,0,2,2,1,0,0,0,0,2\n");
     Write("edges.csv", EdgeHeader() + "\n" +
                            "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,kept,test,dependent,b,a,b,3.2,"
                            "0.01,ok,dependent,test,,,\n");
@@ -58,6 +58,7 @@ TEST_CASE("the files of a result folder read back by column name") {
   CHECK(s.learner == "pairwise/hawkes-lr");
   CHECK(s.replicates == 8);
   CHECK(s.failed == 1);
+  CHECK(s.trials == 2);
   CHECK(s.power.low == 0.25);
   CHECK(std::isnan(s.false_edge_rate.estimate));
   CHECK(s.tests.estimate == 12);
@@ -137,6 +138,9 @@ TEST_CASE("each plan.csv row names its combination and fits only that panel") {
   CHECK_FALSE(d->plan[0].Fits(0.05, 2, std::nullopt));
   CHECK(d->plan[1].Fits(0.2, 1, std::nullopt));
   CHECK_FALSE(d->plan[1].Fits(0.2, 1, 0.6));
+  // What was searched, and the combination's number of trials.
+  CHECK(d->plan[0].searched == "length");
+  CHECK(*d->plan[0].trials == 1);
   // A plan.csv from before the combination columns fits every panel.
   f.Write("plan.csv", "learner,target_power,target_false_edge_rate,reached,length,optimistic_length,"
                       "conservative_length,cap\npairwise/hawkes-lr,0.8,0.05,yes,750,,,16000\n");

@@ -30,7 +30,7 @@ TEST_CASE("replicates.csv header") {
         "timing_simulate_seconds,timing_test_seconds,timing_learn_seconds,timing_score_seconds,"
         "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
         "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
-        "false_reach");
+        "false_reach,trials");
 }
 
 TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
@@ -61,7 +61,7 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "timing_learn_seconds,timing_learn_seconds_low,timing_learn_seconds_high,not_estimable,"
         "test_correct,test_false_separation,test_false_dependence,missed_own_test,"
         "missed_propagation,missed_reach,false_own_test,false_propagation,false_not_estimable,"
-        "false_reach");
+        "false_reach,trials");
 }
 
 TEST_CASE("every documented column is in results/README.md") {
@@ -111,9 +111,10 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   r.attribution.tests.false_separation = 6;
   r.attribution.missed_propagation = 2;
   r.attribution.false_not_estimable = 1;
+  r.trials = 3;  // the last column (grid.trials)
   const std::string line = FormatReplicateRow(r);
   CHECK(line.find(",0.3333333333333333,,4,1,5,4,0.8,40,") != std::string::npos);  // NaN is an empty field
-  CHECK(line.substr(line.size() - 20) == ",0,6,0,0,2,0,0,0,1,0");
+  CHECK(line.substr(line.size() - 22) == ",0,6,0,0,2,0,0,0,1,0,3");
   const std::optional<ReplicateRow> back = ParseReplicateRow(line);
   REQUIRE(back.has_value());
   CHECK(FormatReplicateRow(*back) == line);
@@ -122,6 +123,7 @@ TEST_CASE("a replicate row reads back exactly, failed rows included") {
   CHECK(back->score.by_group[1].solid == 3);
   CHECK(back->score.marks_agree == 4);
   CHECK(back->score.mark_agreement == 0.8);
+  CHECK(back->trials == 3);
   CHECK(std::isnan(back->score.false_edge_rate));
 
   r.ok = false;

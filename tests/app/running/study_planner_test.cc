@@ -118,9 +118,10 @@ TEST_CASE("every combination of hidden count and level gets its own plan named i
   REQUIRE(log.size() == 4);
   CHECK(log[3].rfind("plan: maximal-search/oracle (level 0.2, 1 hidden) at length 100:", 0) == 0);
   const std::string csv = PlanCsv(plans, targets);
-  CHECK(csv.find(",level,hidden_count,stationarity_target\n") != std::string::npos);
-  // The last row: cap (64 x the largest grid length), level, hidden count, no target.
-  CHECK(csv.find(",6400,0.2,1,\n") != std::string::npos);
+  CHECK(csv.find(",level,hidden_count,stationarity_target,searched,trials,trial_length\n") != std::string::npos);
+  // The last row: cap (64 x the largest grid length), level, hidden count, no
+  // target; then the searched quantity (length), one trial, no trial length.
+  CHECK(csv.find(",6400,0.2,1,,length,1,\n") != std::string::npos);
   const std::string report = PlanReport(plans, targets);
   CHECK(report.find("at level 0.05, 1 hidden:\nmaximal-search/oracle: length 100") != std::string::npos);
 }
@@ -142,7 +143,7 @@ TEST_CASE("--at narrows the combinations and a choice matching none is an error 
         "hidden; level 0.05, 1 hidden; level 0.2, 1 hidden)");
   picked = PickCombinations(s, "colour=1");
   REQUIRE_FALSE(picked.ok());
-  CHECK(picked.status().message() == "cannot read 'colour=1' (expected hidden=N, target=X or level=X)");
+  CHECK(picked.status().message() == "cannot read 'colour=1' (expected hidden=N, target=X, level=X or trials=N)");
 }
 
 // ---- end combinations ----

@@ -171,5 +171,65 @@ TEST_CASE("invalid paths are refused") {
   CHECK(!DriftTest::Create(d).ok());
 }
 
+// A path data set of the given one-trial pieces.
+sim::PathData Trials(const std::vector<sim::PathData>& pieces) {
+  sim::PathData d;
+  for (const sim::PathData& p : pieces) sim::AppendTrial(d, p);
+  return d;
+}
+
+TEST_CASE("with trials the design stacks each trial's own design, no increment spans two") {
+  const std::vector<sim::PathData> pieces = {Draw(0.3, 60, 31), Draw(0.3, 40, 32), Draw(0.3, 50, 33)};
+  const sim::PathData pooled = Trials(pieces);
+  REQUIRE(pooled.trial_count() == 3);
+  CHECK(pooled.increments() == pooled.samples() - 3);
+  const DriftTestOptions options{DriftStatistic::kF, {0.5}};
+  DriftTest test = DriftTest::Create(pooled, options).value();
+  // Independent computation: each trial's design and response on its own.
+  Eigen::MatrixXd x(0, 5);
+  Eigen::VectorXd y(0);
+  for (const sim::PathData& p : pieces) {
+    DriftTest one = DriftTest::Create(p, options).value();
+    const Eigen::MatrixXd xi = one.Design({0, 1});
+    const Eigen::VectorXd yi = one.Response(1);
+    x.conservativeResize(x.rows() + xi.rows(), Eigen::NoChange);
+    x.bottomRows(xi.rows()) = xi;
+    y.conservativeResize(y.rows() + yi.rows());
+    y.tail(yi.rows()) = yi;
+  }
+  CHECK(test.Design({0, 1}) == x);
+  CHECK(test.Response(1) == y);
+  // The F statistic of the stacked regressions (nested least squares, Greene
+  // 2012, Sec. 5.3) equals the pooled test's, computed from shared moments.
+  const double rss_full = FitLeastSquares(x, y).rss;
+  const Eigen::MatrixXd kept(x.leftCols(1));
+  Eigen::MatrixXd restricted(x.rows(), 3);
+  restricted << x.col(0), x.middleCols(3, 2);
+  const double rss_kept = FitLeastSquares(restricted, y).rss;
+  const double f = ((rss_kept - rss_full) / 2) / (rss_full / double(x.rows() - 5));
+  const TestResult r = test.Run({1, {0}, {1}});
+  REQUIRE(r.status == TestStatus::kOk);
+  CHECK(r.df == 2);
+  CHECK(r.statistic == doctest::Approx(f).epsilon(1e-8));
+  // The same samples on one clock (trial k shifted after trial k - 1) add the
+  // increments across the joins: a different statistic.
+  sim::PathData glued = pooled;
+  glued.trial_starts.clear();
+  double shift = 0;
+  for (int i = 1; i < glued.samples(); ++i) {
+    if (pooled.starts_trial(i)) shift = glued.time[size_t(i) - 1] + 0.1 - pooled.time[size_t(i)];
+    glued.time[size_t(i)] = pooled.time[size_t(i)] + shift;
+  }
+  const TestResult g = DriftTest::Create(glued, options).value().Run({1, {0}, {1}});
+  CHECK(g.statistic != doctest::Approx(r.statistic).epsilon(1e-6));
+}
+
+TEST_CASE("a trial list is checked") {
+  sim::PathData d = Trials({Draw(0.3, 20, 34), Draw(0.3, 20, 35)});
+  CHECK(ValidatePathData(d).ok());
+  d.trial_starts = {1};  // a first trial of one sample
+  CHECK(!ValidatePathData(d).ok());
+}
+
 }  // namespace
 }  // namespace locind::learners

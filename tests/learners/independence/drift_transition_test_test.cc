@@ -124,5 +124,29 @@ TEST_CASE("a coordinate that never moves is not estimable") {
   CHECK(r.status == TestStatus::kNotEstimable);
 }
 
+TEST_CASE("with trials the transitions pool: a trial given twice doubles the statistic") {
+  // Each log-likelihood doubles at every parameter, so both maxima stay put
+  // and the likelihood ratio doubles (common practice, no source). On one
+  // clock the join adds a spurious increment, so the statistic differs.
+  const sim::PathData one = Draw(0.3, 100, 36);
+  sim::PathData twice;
+  sim::AppendTrial(twice, one);
+  sim::AppendTrial(twice, one);
+  REQUIRE(twice.trial_count() == 2);
+  const TestQuery q{1, {0}, {1}};
+  const TestResult a = DriftTransitionTest::Create(one).value().Run(q);
+  const TestResult b = DriftTransitionTest::Create(twice).value().Run(q);
+  REQUIRE(a.status == TestStatus::kOk);
+  REQUIRE(b.status == TestStatus::kOk);
+  CHECK(b.statistic == doctest::Approx(2 * a.statistic).epsilon(1e-4));
+  sim::PathData glued = twice;
+  glued.trial_starts.clear();
+  const double shift = one.time.back() + 0.1 - one.time.front();
+  for (int i = one.samples(); i < glued.samples(); ++i) glued.time[size_t(i)] += shift;
+  const TestResult g = DriftTransitionTest::Create(glued).value().Run(q);
+  REQUIRE(g.status == TestStatus::kOk);
+  CHECK(g.statistic != doctest::Approx(b.statistic).epsilon(1e-4));
+}
+
 }  // namespace
 }  // namespace locind::learners

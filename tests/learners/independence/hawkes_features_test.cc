@@ -114,5 +114,66 @@ TEST_CASE("invalid data and rates are refused") {
   CHECK(!HawkesFeatures::Create(TwoStreams(), {}).ok());
 }
 
+// Two trials on their own clocks: trial 1 on [0, 5] (x at 1, 2; y at 3),
+// trial 2 on [0, 4] (x at 0.5; y at 1.5, 3).
+sim::EventData TwoTrials() {
+  sim::EventData one, two;
+  one.names = two.names = {"x", "y"};
+  one.times = {{1.0, 2.0}, {3.0}};
+  one.end = 5;
+  two.times = {{0.5}, {1.5, 3.0}};
+  two.end = 4;
+  sim::EventData d;
+  sim::AppendTrial(d, one);
+  sim::AppendTrial(d, two);
+  return d;
+}
+
+TEST_CASE("with trials the filters restart at each trial's start") {
+  auto f = HawkesFeatures::Create(TwoTrials(), {1.0}).value();
+  REQUIRE(f.data().trial_count() == 2);
+  CHECK(f.data().duration() == 9.0);
+  // Hand-computed kernel sums exp(-(t - s)) over the same trial's x events.
+  const Eigen::MatrixXd& x = f.AtEvents(1, 0);
+  REQUIRE(x.rows() == 3);
+  CHECK(x(0, 0) == doctest::Approx(std::exp(-2.0) + std::exp(-1.0)));
+  CHECK(x(1, 0) == doctest::Approx(std::exp(-1.0)));  // trial 2 sees only x at 0.5
+  CHECK(x(2, 0) == doctest::Approx(std::exp(-2.5)));
+  // Own past of y: its first event of trial 2 has none (y at 3 of trial 1 is another trial).
+  CHECK(f.AtEvents(1, 1)(1, 0) == 0.0);
+  CHECK(f.AtEvents(1, 1)(2, 0) == doctest::Approx(std::exp(-1.5)));
+  // Integrals stop at each trial's end: (1 - e^-4) + (1 - e^-3) + (1 - e^-3.5).
+  CHECK(f.Integrals(0)[0] == doctest::Approx(3 - std::exp(-4.0) - std::exp(-3.0) - std::exp(-3.5)));
+  // The quadrature grid covers both windows (total weight 9) and its nodes
+  // integrate the features exactly as the closed form does.
+  CHECK(f.QuadratureGrid().weights.sum() == doctest::Approx(9.0).epsilon(1e-12));
+  const double by_grid = f.AtGrid(0).col(0).dot(f.QuadratureGrid().weights);
+  CHECK(by_grid == doctest::Approx(f.Integrals(0)[0]).epsilon(1e-6));
+  // Stacked clock: trial 2 starts where trial 1 ends (5).
+  CHECK(f.StackedTimes(1) == std::vector<double>{3.0, 6.5, 8.0});
+  CHECK(f.TrialOfEvents(1) == std::vector<int>{0, 1, 1});
+}
+
+TEST_CASE("the same events on one clock carry history across the gap") {
+  // Trial 2 moved to [5, 9] of one window [0, 9]: y at 6.5 now also sees x at
+  // 1 and 2 of trial 1 (hand-computed), unlike the two-trial data above.
+  sim::EventData d;
+  d.names = {"x", "y"};
+  d.times = {{1.0, 2.0, 5.5}, {3.0, 6.5, 8.0}};
+  d.end = 9;
+  auto f = HawkesFeatures::Create(d, {1.0}).value();
+  CHECK(f.AtEvents(1, 0)(1, 0) == doctest::Approx(std::exp(-5.5) + std::exp(-4.5) + std::exp(-1.0)));
+}
+
+TEST_CASE("a trial list is checked trial by trial") {
+  sim::EventData d = TwoTrials();
+  CHECK(ValidateEventData(d).ok());
+  d.times[1][2] = 4.5;  // beyond trial 2's end (4)
+  CHECK(ValidateEventData(d).message().find("trial 2") != std::string::npos);
+  d = TwoTrials();
+  d.trials.pop_back();  // one trial in a trial list
+  CHECK(!ValidateEventData(d).ok());
+}
+
 }  // namespace
 }  // namespace locind::learners

@@ -169,5 +169,67 @@ TEST_CASE("three folds: at least three blocks, every fold needs events") {
   CHECK(rich.Run({1, {0}, {1}}).p_value < 1e-6);
 }
 
+TEST_CASE("with trials the trials are the folds: the estimate matches a direct computation") {
+  // Four trials of 60: even trials form fold 0, odd trials fold 1. The
+  // direct version (C empty, as above) uses each trial's own events only and
+  // the closed-form integral of each exponential up to its trial's end.
+  std::vector<sim::EventData> trials;
+  sim::EventData d;
+  for (uint64_t seed : {51, 52, 53, 54}) {
+    trials.push_back(Draw(0.4, 60, seed));
+    sim::AppendTrial(d, trials.back());
+  }
+  const double r = 1.0;
+  LocalCovarianceTest test(Features(d, {r}));
+  const Result<LocalCovarianceEstimate> e = test.Estimate({1, {0}, {}});
+  REQUIRE(e.ok());
+  CHECK(e.value().blocks == 4);
+  double x_time[2] = {0, 0}, length[2] = {0, 0};
+  int count[2] = {0, 0};
+  for (size_t k = 0; k < trials.size(); ++k) {
+    const sim::EventData& t = trials[k];
+    for (double s : t.times[0]) x_time[k % 2] += 1 - std::exp(-r * (t.end - s));
+    length[k % 2] += t.end - t.start;
+    count[k % 2] += int(t.times[1].size());
+  }
+  double gamma = 0, variance = 0;
+  for (size_t k = 0; k < trials.size(); ++k) {
+    const int other = 1 - int(k % 2);
+    for (double t : trials[k].times[1]) {
+      const double g = Filtered(trials[k].times[0], r, t) - x_time[other] / length[other];
+      gamma += g;
+      variance += g * g;
+    }
+  }
+  for (int m = 0; m < 2; ++m) {
+    const double mean_other = x_time[1 - m] / length[1 - m];
+    const double rate_other = count[1 - m] / length[1 - m];
+    gamma -= rate_other * (x_time[m] - mean_other * length[m]);
+  }
+  CHECK(e.value().gamma[0] == doctest::Approx(gamma).epsilon(1e-6));
+  CHECK(e.value().variance(0, 0) == doctest::Approx(variance).epsilon(1e-6));
+}
+
+TEST_CASE("with trials the nuisance filters restart per trial like the shared features") {
+  // Regression against the code's own shared-feature path, as in the
+  // one-trial case above: at the shared rates the nuisance filters (computed
+  // per trial on the stacked clock) must equal HawkesFeatures' per-trial
+  // columns, so the estimate is unchanged.
+  sim::EventData d;
+  for (uint64_t seed : {61, 62, 63}) sim::AppendTrial(d, Draw(0.3, 150, seed));
+  auto features = Features(d, {0.5, 2.0, 8.0});
+  LocalCovarianceTest shared(features);
+  LocalCovarianceTest own(features, {.nuisance_rates = 3, .nuisance_span = 1});
+  const auto a = shared.Estimate({1, {0}, {1}});
+  const auto b = own.Estimate({1, {0}, {1}});
+  REQUIRE(a.ok());
+  REQUIRE(b.ok());
+  CHECK(a.value().blocks == 3);
+  for (Eigen::Index j = 0; j < a.value().gamma.size(); ++j) {
+    CHECK(b.value().gamma[j] == doctest::Approx(a.value().gamma[j]).epsilon(1e-8));
+    CHECK(b.value().variance(j, j) == doctest::Approx(a.value().variance(j, j)).epsilon(1e-8));
+  }
+}
+
 }  // namespace
 }  // namespace locind::learners
