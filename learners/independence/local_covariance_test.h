@@ -73,9 +73,10 @@
 //
 // Measured (docs/tests.md): near or below the level on specified nulls and
 // a hidden mediator; above it on the pooled true nulls of the demo graph
-// (hidden drivers), where a richer nuisance basis makes it worse at short
-// windows, not better: the rejections there come from the correlation of
-// the two nuisance fits' errors, not from the basis being too poor.
+// at 1,000 (6.6-6.8%), where a richer basis makes it worse and three folds
+// do not help: the excess behaves like nuisance estimation noise that
+// V_hat leaves out. The batch_variance option holds the level there (2.5%)
+// but, uncentred, loses power on strong effects; it is not the default.
 //
 // Not estimable: fewer than min_target_events events of b in either fold
 // ("too few events"), a source without events or a singular basis Gram

@@ -375,8 +375,13 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
   const char* set = std::getenv("LOCIND_VARIANT_SET");
   if (set && std::string(set) == "lr") variants.clear();
   if (set && std::string(set) == "default") variants.resize(1);
+  if (set && std::string(set) == "batch") {
+    variants.assign(2, LocalCovarianceOptions{});
+    variants[1].batch_variance = true;
+  }
   const char* which = std::getenv("LOCIND_VARIANT_SETTING");
-  const Setting only = which && std::string(which) == "specified" ? Setting::kSpecified
+  const Setting only = which && std::string(which) == "alternative" ? Setting::kAlternative
+                       : which && std::string(which) == "specified" ? Setting::kSpecified
                        : which && std::string(which) == "omitted" ? Setting::kOmittedParent
                        : which && std::string(which) == "drawn"   ? Setting::kDemoDrawn
                                                                    : Setting::kDemoFixed;
@@ -413,6 +418,7 @@ TEST_CASE("pooled demo nulls" * doctest::skip()) {
   variants[3].ridge = 1e-2;
   const char* set = std::getenv("LOCIND_VARIANT_SET");
   if (set && std::string(set) == "default") variants.resize(1);
+  if (set && std::string(set) == "batch") variants.resize(2);
   const graph::TruthGraph truth = Truth(Setting::kDemoDrawn);
   OracleTest oracle = OracleTest::FromTruth(truth).value();
   std::vector<std::vector<double>> p(variants.size() + 1);
