@@ -22,6 +22,7 @@
 
 #include "app/cli/command.h"
 #include "app/cli/command_guard.h"
+#include "app/cli/options.h"
 #include "app/io/error.h"
 #include "app/io/graph_file.h"
 #include "app/io/graph_json.h"
@@ -182,17 +183,9 @@ void PrintJson(const metrics::TruthClass& tc, const Learned& g, const metrics::R
 
 int Score(const std::vector<std::string>& args, std::ostream& out) {
   po::options_description o("options");
-  o.add_options()("truth", po::value<std::string>()->required(), "truth graph file")(
-      "json", "print JSON")("graph", po::value<std::vector<std::string>>(), "learned graph");
-  po::positional_options_description positional;
-  positional.add("graph", -1);
-  po::variables_map vm;
-  po::store(po::command_line_parser(args).options(o).positional(positional).run(), vm);
-  po::notify(vm);
-  if (!vm.count("graph") || vm["graph"].as<std::vector<std::string>>().size() != 1) {
-    throw UsageError{"expected one graph file"};
-  }
-  const std::string graph_path = vm["graph"].as<std::vector<std::string>>()[0];
+  o.add_options()("truth", po::value<std::string>()->required(), "truth graph file")("json", "print JSON");
+  const po::variables_map vm = ParseCommandLine(args, o, {{"graph", "GRAPH (the learned graph file)"}});
+  const std::string graph_path = vm["graph"].as<std::string>();
   const std::string truth_path = vm["truth"].as<std::string>();
   const GraphFile truth = ReadOrThrow(truth_path);
   GraphFile learned_file = ReadOrThrow(graph_path);
@@ -212,7 +205,7 @@ int Score(const std::vector<std::string>& args, std::ostream& out) {
 }  // namespace
 
 int RunScoreCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+  if (WantsHelp(args)) {
     out << kUsage;
     return kExitOk;
   }
