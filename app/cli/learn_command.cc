@@ -262,6 +262,8 @@ const char kLearnHelp[] =
     "                   time,<process ids>); any token without spaces, commas,\n"
     "                   semicolons, quotes or backslashes is a process id, numeric\n"
     "                   ids included\n"
+    "                   (a folder of such files: several trials, pooled; no\n"
+    "                   '# window:' line: first to last event, with a note)\n"
     "  --kind K         events or paths: which reader (default: from the header)\n"
     "  --method NAME    the learning method\n"
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chisq, hawkes-lr-signed,\n"

@@ -78,7 +78,8 @@ int RunPlanCommand(const std::vector<std::string>& args, std::ostream& out, std:
   if (WantsHelp(args)) {
     out << "usage: locind plan STUDY.yaml [--power 0.8] [--false-edges 0.05] [--threads N] [--out DIR] [--at TEXT]\n"
            "  per learner, the smallest observation length with power >= --power and false-edge\n"
-           "  rate <= --false-edges (search settings: the plan section of the study file)\n"
+           "  rate <= --false-edges (search settings: the plan section of the study file;\n"
+           "  plan.along: trials searches the number of trials of the first grid length instead)\n"
            "  --out DIR     also write DIR/plan.csv (locind report DIR draws the targets)\n"
            "  --at TEXT     plan only the combinations of the other grid factors that match TEXT,\n"
            "                e.g. \"hidden=2 target=0.6 level=0.05\" (default: every combination)\n";
