@@ -94,6 +94,19 @@ TEST_CASE("the files of a result folder read back by column name") {
   CHECK(d->plan.empty());
 }
 
+TEST_CASE("a null_tests.csv written before first_of_pair reads every row as a first test") {
+  Folder f("before_first_of_pair");
+  f.Write("null_tests.csv",
+          "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
+          "test_statistic,test_df,test_p_value,all_parents_given\n"
+          "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes\n");
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE_MESSAGE(d.ok(), (d.ok() ? "" : d.status().message()));
+  REQUIRE(d->null_tests.size() == 1);
+  CHECK(d->null_tests[0].p_value == 0.68);
+  CHECK(d->null_tests[0].first_of_pair);
+}
+
 TEST_CASE("plan.csv is read when present") {
   Folder f("plan");
   LearnerPlan reached;
