@@ -4,6 +4,7 @@
 #include <cmath>
 #include <set>
 #include <tuple>
+#include <utility>
 
 #include <boost/math/distributions/beta.hpp>
 
@@ -30,6 +31,20 @@ std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
     kept.push_back(holding[static_cast<size_t>(std::llround(static_cast<double>(k) * step))]);
   }
   return kept;
+}
+
+// --- Was the test asked only because of an earlier one? ---------------------
+
+std::vector<bool> FirstOfPair(const std::vector<learners::TestRecord>& log) {
+  std::set<std::pair<int, std::vector<int>>> asked;
+  std::vector<bool> first(log.size());
+  for (size_t i = 0; i < log.size(); ++i) {
+    const learners::TestRecord& r = log[i];
+    first[i] = asked.count({r.target, r.sources}) == 0;
+    // Only an answer (status ok) can have steered the learner's next test.
+    if (r.status == learners::TestStatus::kOk) asked.insert({r.target, r.sources});
+  }
+  return first;
 }
 
 // --- Can the test's model be right? -----------------------------------------

@@ -27,6 +27,18 @@ namespace locind::metrics {
 std::vector<size_t> NullHoldingTests(const graph::Dmg& projected,
                                      const std::vector<learners::TestRecord>& log, size_t cap);
 
+// --- Was the test asked only because of an earlier one? ---------------------
+// For each entry of `log`: true when no earlier test with status ok has the
+// same target and sources (any conditioning set). A learner that tries a
+// pair (a, b) with a larger conditioning set only after a smaller one
+// rejected (screen, the PC-style searches) asks its follow-up tests because
+// of a rejection on the same data, and the two statistics share most of
+// their information; a follow-up of a falsely rejected null then rejects far
+// more often than the level (measured in docs/tests.md, drift-exact-lr). The
+// first test of each pair is asked whatever that pair's data say, so only
+// it is a fair trial of the level.
+std::vector<bool> FirstOfPair(const std::vector<learners::TestRecord>& log);
+
 // --- Can the test's model be right? -----------------------------------------
 // True when the given set C holds every parent of `target` b in `projected`
 // (the truth's latent projection) and b has no bidirected edge there; then

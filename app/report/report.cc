@@ -440,7 +440,8 @@ double QqLevel(const StudySpec& study) {
 }
 
 void AddQqFigures(const StudySpec& study, const ReportData& data, ReportSection& section) {
-  // (test, length, tag) -> p-values, each distinct (cell, replicate, query) once.
+  // (test, length, tag) -> p-values, each distinct (cell, replicate, query) once,
+  // first tests of a pair only (DistinctNullTests).
   std::map<std::tuple<std::string, double, bool>, std::vector<double>> pooled;
   for (const NullTestLine* n : DistinctNullTests(data.null_tests)) {
     pooled[{n->test, n->length, !n->all_parents_given}].push_back(n->p_value);
@@ -472,8 +473,9 @@ std::string Fixed3(double value) {
 ReportTable CalibrationTableOf(const std::vector<CalibrationRow>& rows) {
   ReportTable table;
   table.id = "calibration-table";
-  table.caption = "Rejections among true-null tests at the level of their cell, with exact (Clopper-Pearson) "
-                  "95% intervals; as in calibration.csv. Rows whose interval lies entirely above the level "
+  table.caption = "Rejections among true-null tests at the level of their cell (each learner's first test of "
+                  "a target and sources; follow-ups asked after a rejection left out), with exact "
+                  "(Clopper-Pearson) 95% intervals; as in calibration.csv. Rows whose interval lies entirely above the level "
                   "are marked.";
   table.columns = {"test", "length", "level", "all_parents_given", "tests", "rejected", "rejected_share",
                    "rejected_share_low", "rejected_share_high"};

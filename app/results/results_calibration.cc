@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <set>
 #include <sstream>
+#include <string_view>
 #include <tuple>
 
 #include "app/io/event_csv.h"
@@ -40,6 +41,9 @@ std::vector<const NullTestLine*> DistinctNullTests(const std::vector<NullTestLin
   std::set<std::tuple<std::string, int, int, std::string, std::string, std::string>> seen;
   std::vector<const NullTestLine*> out;
   for (const NullTestLine& n : lines) {
+    // A follow-up of the same pair was asked because of an earlier rejection
+    // on the same data (metrics::FirstOfPair): not a fair trial of the level.
+    if (!n.first_of_pair) continue;
     if (seen.insert({n.test, n.cell, n.replicate, n.target, n.sources, n.given}).second) out.push_back(&n);
   }
   return out;
@@ -88,17 +92,23 @@ std::optional<NullTestLine> ParseNullTestLine(const std::string& line) {
                       learner = NullTestColumn("learner"), test = NullTestColumn("test"),
                       length = NullTestColumn("length"), target = NullTestColumn("test_target"),
                       sources = NullTestColumn("test_sources"), given = NullTestColumn("test_given"),
-                      p_value = NullTestColumn("test_p_value"), tag = NullTestColumn("all_parents_given");
+                      p_value = NullTestColumn("test_p_value"), tag = NullTestColumn("all_parents_given"),
+                      first = NullTestColumn("first_of_pair");
   const std::vector<csv::Field> f = csv::Split(line);
-  // No column has an empty name, so this is the header's field count.
-  if (f.size() != NullTestColumn("")) return std::nullopt;
+  // No column has an empty name, so this is the header's field count. A line
+  // of a journal written before first_of_pair (the last column) has one
+  // field less and counts as a first test, as it did then.
+  const size_t fields = NullTestColumn("");
+  if (f.size() != fields && f.size() + 1 != fields) return std::nullopt;
   NullTestLine n;
   const std::string_view tag_text = f[tag].text;
+  const std::string_view first_text = f.size() > first ? f[first].text : std::string_view("yes");
   if (!ParseWhole(f[cell].text, n.cell) || !ParseWhole(f[replicate].text, n.replicate) ||
       !csv::ParseNumber(f[length].text, n.length) || !csv::ParseNumber(f[p_value].text, n.p_value) ||
-      (tag_text != "yes" && tag_text != "no")) {
+      (tag_text != "yes" && tag_text != "no") || (first_text != "yes" && first_text != "no")) {
     return std::nullopt;
   }
+  n.first_of_pair = first_text == "yes";
   n.learner = f[learner].text;
   n.test = f[test].text;
   n.target = f[target].text;

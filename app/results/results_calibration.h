@@ -9,7 +9,11 @@
 // observation length, level and all_parents_given (can the test's model be
 // right: metrics::AllParentsGiven); a query asked of one data set (cell,
 // replicate, target, sources, given) counts once however many learners
-// asked it, as the p-value is the same. The share gets an exact
+// asked it, as the p-value is the same. Only a learner's first answered test
+// of each target and sources counts (column first_of_pair): a learner that
+// tries a larger conditioning set only after a rejection asks its follow-ups
+// because of that rejection, and they reject far more often than the level
+// even when the test is exact (docs/tests.md, drift-exact-lr). The share gets an exact
 // (Clopper-Pearson) 95% interval; a group whose interval lies entirely above
 // the level rejects too often, and the report warns about it.
 #pragma once
@@ -39,8 +43,8 @@ struct CalibrationRow {
   bool AboveLevel() const { return share.low > level; }
 };
 
-// The null-test lines that count, each distinct query on one data set once
-// (the first line of each), in file order.
+// The null-test lines that count, in file order: those with first_of_pair,
+// each distinct query on one data set once (the first line of each).
 std::vector<const NullTestLine*> DistinctNullTests(const std::vector<NullTestLine>& lines);
 
 // The table, sorted by test, length, level, then all_parents_given (yes

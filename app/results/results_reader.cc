@@ -202,6 +202,7 @@ void ReadNullTests(const Table& t, ReportData& d) {
     n.given = t.Text(i, "test_given");
     n.p_value = t.Number(i, "test_p_value");
     n.all_parents_given = t.YesNo(i, "all_parents_given");
+    if (t.Has("first_of_pair")) n.first_of_pair = t.YesNo(i, "first_of_pair");
     d.null_tests.push_back(std::move(n));
   }
 }

@@ -64,6 +64,9 @@ struct NullTestLine {
   double length = 0;
   double p_value = 0;
   bool all_parents_given = false;  // column all_parents_given: yes / no
+  // Column first_of_pair (yes / no; yes in files written before it): the
+  // learner's first answered test of this target and sources.
+  bool first_of_pair = true;
 };
 
 struct PlanLine {

@@ -127,7 +127,7 @@ const std::string& EdgeHeader() {
 const std::string& NullTestHeader() {
   static const std::string header =
       "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
-      "test_statistic,test_df,test_p_value,all_parents_given";
+      "test_statistic,test_df,test_p_value,all_parents_given,first_of_pair";
   return header;
 }
 

@@ -214,13 +214,17 @@ void AddEdgeLines(const ReplicateRow& row, const metrics::TruthClass& truth_clas
 // null_tests.csv (evenly spaced over the learner's log), so a method that
 // makes 10^5 tests does not swamp the file. Each line ends with
 // all_parents_given (metrics::AllParentsGiven on the truth's projection):
-// yes when the test's model can be right.
+// yes when the test's model can be right; then first_of_pair
+// (metrics::FirstOfPair on the whole log): yes when no earlier answered test
+// of the learner had the same target and sources, so the test was not asked
+// because of an earlier rejection on the same data.
 constexpr size_t kNullTestsPerLearner = 200;
 
 void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_class,
                       const learners::LearnResult& r, std::vector<std::string>& lines) {
   if (r.test_kind == "oracle" || r.test_kind == "none") return;
   const std::vector<std::string>& names = truth_class.projected.names();
+  const std::vector<bool> first_of_pair = metrics::FirstOfPair(r.log);
   for (const size_t i : metrics::NullHoldingTests(truth_class.projected, r.log, kNullTestsPerLearner)) {
     const learners::TestRecord& t = r.log[i];
     std::ostringstream o;
@@ -228,7 +232,8 @@ void AddNullTestLines(const ReplicateRow& row, const metrics::TruthClass& truth_
       << "," << Num(row.length) << "," << names[t.target] << "," << NameList(t.sources, names) << ","
       << NameList(t.given, names) << "," << Num(t.statistic) << "," << Num(t.df) << ","
       << Num(t.p_value) << ","
-      << (metrics::AllParentsGiven(truth_class.projected, t.target, t.given) ? "yes" : "no");
+      << (metrics::AllParentsGiven(truth_class.projected, t.target, t.given) ? "yes" : "no") << ","
+      << (first_of_pair[i] ? "yes" : "no");
     lines.push_back(o.str());
   }
 }

@@ -54,6 +54,20 @@ TEST_CASE("a cap keeps evenly spaced tests including the first and the last") {
   CHECK(kept == std::vector<size_t>{0, 10, 19, 29});
 }
 
+TEST_CASE("first test of each target and sources; only answered tests count as earlier") {
+  const std::vector<learners::TestRecord> log = {
+      Record(2, {0}, {2}, 0.01),                                        // first of (c, {a})
+      Record(2, {0}, {1, 2}, 0.40),                                     // follow-up of (c, {a})
+      Record(2, {1}, {2}, 0.40),                                        // first of (c, {b})
+      Record(0, {2}, {0}, 0.90, learners::TestStatus::kNotEstimable),  // first of (a, {c}), no answer
+      Record(0, {2}, {0, 1}, 0.70),                                     // still first: no earlier answer
+      Record(2, {0, 1}, {2}, 0.50),                                     // another source set: first
+      Record(2, {0}, {2}, 0.01),                                        // the first query again: follow-up
+  };
+  CHECK(FirstOfPair(log) == std::vector<bool>{true, false, true, true, true, true, false});
+  CHECK(FirstOfPair({}).empty());
+}
+
 TEST_CASE("QQ points and the Beta band of uniform order statistics") {
   std::vector<double> p;
   for (int i = 10; i >= 1; --i) p.push_back(i / 11.0);

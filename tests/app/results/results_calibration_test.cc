@@ -46,6 +46,14 @@ TEST_CASE("a null_tests.csv line reads back, and a malformed one is refused") {
   CHECK_FALSE(ParseNullTestLine("x,5,t1,l,hawkes-lr,600,b,a,b,1.5,3,0.04,yes"));    // bad cell
 }
 
+TEST_CASE("first_of_pair reads back; a line without it (older journal) is a first test") {
+  CHECK(ParseNullTestLine("2,5,t1,l,hawkes-lr,600,b,a,b,1.5,3,0.04,yes")->first_of_pair);
+  CHECK(ParseNullTestLine("2,5,t1,l,hawkes-lr,600,b,a,b,1.5,3,0.04,yes,yes")->first_of_pair);
+  CHECK_FALSE(ParseNullTestLine("2,5,t1,l,hawkes-lr,600,b,a,b;c,1.5,3,0.04,yes,no")->first_of_pair);
+  CHECK_FALSE(ParseNullTestLine("2,5,t1,l,hawkes-lr,600,b,a,b,1.5,3,0.04,yes,maybe"));  // bad tag
+  CHECK_FALSE(ParseNullTestLine("2,5,t1,l,hawkes-lr,600,b,a,b,1.5,3,0.04,yes,no,no"));  // field too many
+}
+
 NullTestLine Line(int cell, int replicate, const std::string& learner, const std::string& target,
                   const std::string& source, double p, bool given) {
   NullTestLine n;
@@ -110,6 +118,28 @@ TEST_CASE("counts per test, length, level and tag, each query on one data set on
   CHECK(CalibrationWarning(rows[2]) ==
         "hawkes-lr at length 100, level 0.05, all parents given: no: 2 of 2 true-null tests rejected "
         "(share 1.000, exact 95% interval 0.158 to 1.000)");
+}
+
+TEST_CASE("a follow-up test of the same pair does not count") {
+  std::vector<Cell> cells(1);
+  cells[0].length = 100;
+  cells[0].level = 0.05;
+  NullTestLine first = Line(0, 0, "L1", "b", "a", 0.03, true);
+  NullTestLine follow_up = Line(0, 0, "L1", "b", "a", 0.02, true);
+  follow_up.given = "b;c";
+  follow_up.first_of_pair = false;
+  // The same query as the follow-up, asked first by another learner: counts.
+  NullTestLine other = follow_up;
+  other.learner = "L2";
+  other.first_of_pair = true;
+  const std::vector<NullTestLine> alone = {first, follow_up};
+  REQUIRE(DistinctNullTests(alone).size() == 1);
+  CHECK(DistinctNullTests(alone)[0] == &alone[0]);
+  const std::vector<CalibrationRow> rows = CalibrationTable(alone, cells);
+  REQUIRE(rows.size() == 1);
+  CHECK(rows[0].tests == 1);
+  CHECK(rows[0].rejected == 1);
+  CHECK(DistinctNullTests({first, follow_up, other}).size() == 2);
 }
 
 TEST_CASE("calibration.csv of finished units") {

@@ -40,7 +40,7 @@ struct Folder {
     Write("edges.csv", EdgeHeader() + "\n" +
                            "0,1,t1,pairwise/hawkes-lr,a -> b,directed,solid,reported,,kept,test,dependent,b,a,b,3.2,"
                            "0.01,ok,dependent,test,,,\n");
-    Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes\n");
+    Write("null_tests.csv", NullTestHeader() + "\n" + "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes,no\n");
   }
   ~Folder() { fs::remove_all(dir); }
   void Write(const std::string& name, const std::string& text) const { std::ofstream(dir / name) << text; }
@@ -90,7 +90,21 @@ TEST_CASE("the files of a result folder read back by column name") {
   CHECK(d->null_tests[0].given == "a;c");
   CHECK(d->null_tests[0].p_value == 0.68);
   CHECK(d->null_tests[0].all_parents_given);
+  CHECK_FALSE(d->null_tests[0].first_of_pair);
   CHECK(d->plan.empty());
+}
+
+TEST_CASE("a null_tests.csv written before first_of_pair reads every row as a first test") {
+  Folder f("before_first_of_pair");
+  f.Write("null_tests.csv",
+          "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
+          "test_statistic,test_df,test_p_value,all_parents_given\n"
+          "0,1,t1,pairwise/hawkes-lr,hawkes-lr,250,a,b,a;c,1.5,3,0.68,yes\n");
+  const Result<ReportData> d = ReadReportData(f.dir.string());
+  REQUIRE_MESSAGE(d.ok(), (d.ok() ? "" : d.status().message()));
+  REQUIRE(d->null_tests.size() == 1);
+  CHECK(d->null_tests[0].p_value == 0.68);
+  CHECK(d->null_tests[0].first_of_pair);
 }
 
 TEST_CASE("plan.csv is read when present") {
@@ -160,14 +174,14 @@ TEST_CASE("missing files, ragged rows and bad numbers name file, line, column an
   f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1\n");
   d = ReadReportData(f.dir.string());
   REQUIRE_FALSE(d.ok());
-  CHECK(d.status().message() == (f.dir / "null_tests.csv").string() + ":2:1: row: 3 fields, the header has 13");
-  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1,l,hawkes-lr,250,a,b,a,1.5,3,0.5,perhaps\n");
+  CHECK(d.status().message() == (f.dir / "null_tests.csv").string() + ":2:1: row: 3 fields, the header has 14");
+  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1,l,hawkes-lr,250,a,b,a,1.5,3,0.5,perhaps,yes\n");
   d = ReadReportData(f.dir.string());
   REQUIRE_FALSE(d.ok());
   // all_parents_given starts at character 114 of the header.
   CHECK(d.status().message() == (f.dir / "null_tests.csv").string() +
                                     ":2:114: all_parents_given: expected yes or no, got 'perhaps'");
-  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1,l,hawkes-lr,250,a,b,a,1.5,3,high,no\n");
+  f.Write("null_tests.csv", NullTestHeader() + "\n0,1,t1,l,hawkes-lr,250,a,b,a,1.5,3,high,no,yes\n");
   d = ReadReportData(f.dir.string());
   REQUIRE_FALSE(d.ok());
   // test_p_value starts at character 101 of the header.

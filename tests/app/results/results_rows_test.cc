@@ -41,7 +41,7 @@ TEST_CASE("edges.csv, null_tests.csv and summary.csv headers") {
         "more_witnesses,error_cause,error_test");
   CHECK(NullTestHeader() ==
         "cell,replicate,truth,learner,test,length,test_target,test_sources,test_given,"
-        "test_statistic,test_df,test_p_value,all_parents_given");
+        "test_statistic,test_df,test_p_value,all_parents_given,first_of_pair");
   std::string groups;
   for (const char* g : {"directed_", "loop_", "bidirected_"}) {
     for (const char* c : {"power", "power_low", "power_high", "solid", "solid_found", "false_edge_rate",

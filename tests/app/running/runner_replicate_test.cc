@@ -4,6 +4,7 @@
 #include <doctest/doctest.h>
 
 #include <map>
+#include <set>
 #include <sstream>
 
 #include "app/io/error.h"
@@ -77,6 +78,39 @@ TEST_CASE("two levels in one study share data and p-values and differ only in de
   CHECK(same > 0);
   // Same p-values: the larger level rejects at least wherever the smaller does.
   CHECK(dependent_high >= dependent_low);
+}
+
+TEST_CASE("null_tests.csv marks follow-ups of a pair, and calibration.csv counts only first tests") {
+  Scratch s("locind_runner_replicate_test_first_of_pair");
+  std::string text = kTinyStudy;
+  // A high level: screen rejects often and then asks follow-ups of the pair.
+  text.replace(text.find("replicates: 4"), 13, "replicates: 4\n  levels: [0.3]");
+  const std::string study = s.Write("first.yaml", text);
+  REQUIRE(Run({study, "--out", s.Path("out")}) == kExitOk);
+  std::map<std::string, int> first_rows, follow_ups;  // "cell replicate learner target sources"
+  std::map<std::string, bool> follow_up_seen;
+  std::set<std::string> fair;  // distinct first-test queries (cell replicate target sources given)
+  for (const Row& r : ReadRows(s.dir / "out" / "null_tests.csv")) {
+    const std::string pair =
+        r.at("cell") + " " + r.at("replicate") + " " + r.at("learner") + " " + r.at("test_target") + " " +
+        r.at("test_sources");
+    if (r.at("first_of_pair") == "yes") {
+      ++first_rows[pair];
+      CHECK_FALSE(follow_up_seen[pair]);  // the log order: the first test comes before its follow-ups
+      fair.insert(r.at("cell") + " " + r.at("replicate") + " " + r.at("test_target") + " " +
+                  r.at("test_sources") + " " + r.at("test_given"));
+    } else {
+      REQUIRE(r.at("first_of_pair") == "no");
+      ++follow_ups[r.at("learner")];
+      follow_up_seen[pair] = true;
+    }
+  }
+  for (const auto& [pair, n] : first_rows) CHECK_MESSAGE(n == 1, pair);
+  CHECK(follow_ups["pairwise/hawkes-lr"] == 0);  // pairwise asks each pair once
+  CHECK(follow_ups["screen/hawkes-lr"] > 0);
+  int counted = 0;
+  for (const Row& r : ReadRows(s.dir / "out" / "calibration.csv")) counted += std::stoi(r.at("tests"));
+  CHECK(counted == static_cast<int>(fair.size()));
 }
 
 }  // namespace
