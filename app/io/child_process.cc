@@ -215,8 +215,8 @@ ChildOutcome RunChild(const ChildRequest& request) {
   }
   outcome.started = true;
   channels.CloseChildEnds();
-  Conversation talk(request, channels, deadline);
-  const bool in_time = talk.Run();
+  Conversation conversation(request, channels, deadline);
+  const bool in_time = conversation.Run();
   CloseFd(channels.in_parent);  // end of input for a child still reading
   int status = 0;
   if (!in_time || !WaitUntil(pid, deadline, status)) {
@@ -225,9 +225,9 @@ ChildOutcome RunChild(const ChildRequest& request) {
     }
     outcome.timed_out = true;
   }
-  outcome.err_tail = talk.err_tail.size() > kErrTailBytes
-                         ? talk.err_tail.substr(talk.err_tail.size() - kErrTailBytes)
-                         : talk.err_tail;
+  outcome.err_tail = conversation.err_tail.size() > kErrTailBytes
+                         ? conversation.err_tail.substr(conversation.err_tail.size() - kErrTailBytes)
+                         : conversation.err_tail;
   if (!outcome.timed_out) {
     if (WIFSIGNALED(status)) outcome.signal = WTERMSIG(status);
     if (WIFEXITED(status)) outcome.exit_code = WEXITSTATUS(status);

@@ -7,6 +7,7 @@
 
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <sstream>
 #include <string>
 #include <vector>
@@ -124,6 +125,28 @@ inline int CountLines(const fs::path& p) {
   int n = 0;
   for (std::string line; std::getline(in, line);) ++n;
   return n;
+}
+
+// The rows of a result CSV file (no quoting in result files), by column name.
+inline std::vector<std::map<std::string, std::string>> ReadRows(const fs::path& p) {
+  std::istringstream in(ReadAll(p));
+  std::vector<std::string> header;
+  std::vector<std::map<std::string, std::string>> rows;
+  for (std::string line; std::getline(in, line);) {
+    std::vector<std::string> fields;
+    std::stringstream s(line);
+    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
+    if (!line.empty() && line.back() == ',') fields.push_back("");
+    if (header.empty()) {
+      header = fields;
+      continue;
+    }
+    REQUIRE(fields.size() == header.size());
+    std::map<std::string, std::string> r;
+    for (size_t i = 0; i < header.size(); ++i) r[header[i]] = fields[i];
+    rows.push_back(std::move(r));
+  }
+  return rows;
 }
 
 }  // namespace locind::testing

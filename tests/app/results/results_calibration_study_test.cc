@@ -37,28 +37,6 @@ const char kStudy[] =
     "  - {method: pairwise, test: drift-exact-lr}\n"
     "  - {method: screen, test: drift-exact-lr, size: 1}\n";
 
-// Rows of a result CSV (no quoting in result files) by column name.
-std::vector<std::map<std::string, std::string>> Rows(const fs::path& p) {
-  std::istringstream in(ReadAll(p));
-  std::vector<std::string> header;
-  std::vector<std::map<std::string, std::string>> rows;
-  for (std::string line; std::getline(in, line);) {
-    std::vector<std::string> fields;
-    std::stringstream s(line);
-    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
-    if (!line.empty() && line.back() == ',') fields.push_back("");
-    if (header.empty()) {
-      header = fields;
-      continue;
-    }
-    REQUIRE(fields.size() == header.size());
-    std::map<std::string, std::string> r;
-    for (size_t i = 0; i < header.size(); ++i) r[header[i]] = fields[i];
-    rows.push_back(std::move(r));
-  }
-  return rows;
-}
-
 TEST_CASE("first tests of a pair hold the level at window 3200 and screen follow-ups do not") {
   Scratch s("locind_results_calibration_study_test");
   const std::string study = s.Write("study.yaml", kStudy);
@@ -69,7 +47,7 @@ TEST_CASE("first tests of a pair hold the level at window 3200 and screen follow
   // are narrower than they should be; the checks err towards failing.
   constexpr double kConfidence = 1 - 0.05 / 2;
   int64_t tests = 0, rejected = 0;
-  for (const auto& r : Rows(s.dir / "out" / "calibration.csv")) {
+  for (const auto& r : ReadRows(s.dir / "out" / "calibration.csv")) {
     if (r.at("all_parents_given") != "yes") continue;
     tests = std::stoll(r.at("tests"));
     rejected = std::stoll(r.at("rejected"));
@@ -85,7 +63,7 @@ TEST_CASE("first tests of a pair hold the level at window 3200 and screen follow
   // effect and is not counted here.)
   std::map<std::string, bool> first_rejected;  // "cell replicate learner target sources"
   int64_t follow_ups = 0, follow_ups_rejected = 0;
-  for (const auto& r : Rows(s.dir / "out" / "null_tests.csv")) {
+  for (const auto& r : ReadRows(s.dir / "out" / "null_tests.csv")) {
     const std::string pair = r.at("cell") + " " + r.at("replicate") + " " + r.at("learner") + " " +
                              r.at("test_target") + " " + r.at("test_sources");
     const bool rejects = std::stod(r.at("test_p_value")) <= 0.05;

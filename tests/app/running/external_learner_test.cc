@@ -22,27 +22,6 @@ namespace {
 using namespace locind::testing;
 using Row = std::map<std::string, std::string>;
 
-std::vector<Row> ReadRows(const fs::path& p) {
-  std::istringstream in(ReadAll(p));
-  std::vector<std::string> header;
-  std::vector<Row> rows;
-  for (std::string line; std::getline(in, line);) {
-    std::vector<std::string> fields;
-    std::stringstream s(line);
-    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
-    if (!line.empty() && line.back() == ',') fields.push_back("");
-    if (header.empty()) {
-      header = fields;
-      continue;
-    }
-    REQUIRE(fields.size() == header.size());
-    Row r;
-    for (size_t i = 0; i < header.size(); ++i) r[header[i]] = fields[i];
-    rows.push_back(std::move(r));
-  }
-  return rows;
-}
-
 // The folder named in a failed row's message ("folder kept: PATH; ...").
 std::string KeptFolder(const std::string& message) {
   const std::string tag = "folder kept: ";
@@ -219,16 +198,16 @@ TEST_CASE("oracle questions: answers from the projection, malformed lines refuse
 
 TEST_CASE("a child conversation: each line answered, standard error kept, the group killed at the limit") {
   Scratch s("locind_external_learner_test_child");
-  ChildRequest talk;
-  talk.argv = {"sh", "-c", "echo one; read x; echo \"got $x\" >&2; echo two; read y; exit 4"};
-  talk.folder = s.dir.string();
-  talk.time_limit_seconds = 20;
+  ChildRequest exchange;
+  exchange.argv = {"sh", "-c", "echo one; read x; echo \"got $x\" >&2; echo two; read y; exit 4"};
+  exchange.folder = s.dir.string();
+  exchange.time_limit_seconds = 20;
   std::vector<std::string> heard;
-  talk.answer = [&](const std::string& line) {
+  exchange.answer = [&](const std::string& line) {
     heard.push_back(line);
     return "answer-" + line;
   };
-  const ChildOutcome done = RunChild(talk);
+  const ChildOutcome done = RunChild(exchange);
   CHECK(done.started);
   CHECK(done.exit_code == 4);
   CHECK(done.Describe() == "exit code 4");

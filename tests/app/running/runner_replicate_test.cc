@@ -16,28 +16,6 @@ namespace {
 using namespace locind::testing;
 using Row = std::map<std::string, std::string>;
 
-// The rows of a CSV file (no quoting in result files), by column name.
-std::vector<Row> ReadRows(const fs::path& p) {
-  std::istringstream in(ReadAll(p));
-  std::vector<std::string> header;
-  std::vector<Row> rows;
-  for (std::string line; std::getline(in, line);) {
-    std::vector<std::string> fields;
-    std::stringstream s(line);
-    for (std::string f; std::getline(s, f, ',');) fields.push_back(f);
-    if (!line.empty() && line.back() == ',') fields.push_back("");
-    if (header.empty()) {
-      header = fields;
-      continue;
-    }
-    REQUIRE(fields.size() == header.size());
-    Row r;
-    for (size_t i = 0; i < header.size(); ++i) r[header[i]] = fields[i];
-    rows.push_back(std::move(r));
-  }
-  return rows;
-}
-
 TEST_CASE("two levels in one study share data and p-values and differ only in decisions") {
   Scratch s("locind_runner_replicate_test_paired");
   std::string text = kTinyStudy;
