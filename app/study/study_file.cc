@@ -640,8 +640,7 @@ const std::vector<std::string>& EventTests() {
 }
 
 const std::vector<std::string>& PathTests() {
-  static const std::vector<std::string> tests = {"drift-exact-lr", "drift-f", "drift-robust-wald"};
-  return tests;
+  return PathTestNameList();
 }
 
 StudyOrErrors ParseStudyText(const std::string& text, const std::string& file) {

@@ -26,6 +26,6 @@ StudyOrErrors ReadStudyFile(const std::string& path);
 
 // The tests accepted for each kind of data.
 const std::vector<std::string>& EventTests();  // EventTestNames() of app/study/test_choice.h
-const std::vector<std::string>& PathTests();   // drift-exact-lr (default), drift-f, drift-robust-wald
+const std::vector<std::string>& PathTests();   // PathTestNameList() of app/study/test_choice.h
 
 }  // namespace locind::app

@@ -69,7 +69,19 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
   return options;
 }
 
-const char* PathTestNames() { return "drift-exact-lr, drift-f, drift-robust-wald"; }
+const std::vector<std::string>& PathTestNameList() {
+  static const std::vector<std::string> names = {"drift-exact-lr", "drift-f", "drift-robust-wald"};
+  return names;
+}
+
+const char* PathTestNames() {
+  static const std::string joined = [] {
+    std::string out;
+    for (const std::string& name : PathTestNameList()) out += (out.empty() ? "" : ", ") + name;
+    return out;
+  }();
+  return joined.c_str();
+}
 
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
                                                                  std::vector<double> rates) {

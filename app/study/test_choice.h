@@ -48,7 +48,9 @@ std::unique_ptr<learners::IndependenceTest> MakeEventTest(
 // "" gives drift-f's), or nullopt.
 std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& name);
 
-// The path test names, for messages: "drift-exact-lr, drift-f, drift-robust-wald".
+// Every path test name, the default first (for study files).
+const std::vector<std::string>& PathTestNameList();
+// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-f, drift-robust-wald".
 const char* PathTestNames();
 // The path test used when none is named.
 inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
