@@ -17,7 +17,13 @@ Mask Ancestors(const BitGraph& g, Mask c) {
   return found;
 }
 
-Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
+namespace {
+
+// The search of Explore, which ends early once `stop(reach)` holds (checked
+// before each step). One template so that Explore and ReachesExactly share
+// the loop; the predicate is inlined, so Explore pays nothing for it.
+template <typename Stop>
+Reach ExploreUntil(const BitGraph& g, int a, Mask c, Mask ancestors_of_c, Stop stop) {
   Reach reach;
   if (Contains(c, a)) return reach;
   Mask frontier_head = 0;
@@ -33,6 +39,7 @@ Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
   // The start node is not an inner node: every edge at a may be taken.
   arrive(g.children[a] | g.siblings[a], g.parents[a]);
   while ((frontier_head | frontier_tail) != 0) {
+    if (stop(reach)) break;
     if (frontier_tail != 0) {
       // Arrived with a tail: v is a non-collider whatever edge leaves it.
       const int v = std::countr_zero(frontier_tail);
@@ -47,6 +54,12 @@ Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
     if (Contains(ancestors_of_c, v)) arrive(g.siblings[v], g.parents[v]);
   }
   return reach;
+}
+
+}  // namespace
+
+Reach Explore(const BitGraph& g, int a, Mask c, Mask ancestors_of_c) {
+  return ExploreUntil(g, a, c, ancestors_of_c, [](const Reach&) { return false; });
 }
 
 bool ReachGrows(const BitGraph& g, Mask c, Mask ancestors_of_c, const Reach& reach, Mask seed_head,
@@ -70,34 +83,10 @@ bool ReachGrows(const BitGraph& g, Mask c, Mask ancestors_of_c, const Reach& rea
 }
 
 bool ReachesExactly(const BitGraph& g, int a, Mask c, Mask ancestors_of_c, Mask heads) {
-  if (Contains(c, a)) return heads == 0;
-  Reach reach;
-  Mask frontier_head = 0;
-  Mask frontier_tail = 0;
-  auto arrive = [&](Mask new_heads, Mask new_tails) {
-    new_heads &= ~reach.head;
-    new_tails &= ~reach.tail;
-    reach.head |= new_heads;
-    reach.tail |= new_tails;
-    frontier_head |= new_heads;
-    frontier_tail |= new_tails;
-  };
-  // The same search as Explore, with an exit once all of `heads` is reached
-  // (the caller knows the result cannot exceed it).
-  arrive(g.children[a] | g.siblings[a], g.parents[a]);
-  while ((frontier_head | frontier_tail) != 0) {
-    if ((reach.head & heads) == heads) return (reach.head & ~heads) == 0;
-    if (frontier_tail != 0) {
-      const int v = std::countr_zero(frontier_tail);
-      frontier_tail &= frontier_tail - 1;
-      if (!Contains(c, v)) arrive(g.children[v] | g.siblings[v], g.parents[v]);
-      continue;
-    }
-    const int v = std::countr_zero(frontier_head);
-    frontier_head &= frontier_head - 1;
-    if (!Contains(c, v)) arrive(g.children[v], 0);
-    if (Contains(ancestors_of_c, v)) arrive(g.siblings[v], g.parents[v]);
-  }
+  // Once all of `heads` is reached the search may stop: the caller knows the
+  // result cannot fall short of it, so only a surplus head is left to see.
+  const Reach reach = ExploreUntil(g, a, c, ancestors_of_c,
+                                   [heads](const Reach& r) { return (r.head & heads) == heads; });
   return reach.head == heads;
 }
 

@@ -1,7 +1,9 @@
 // locind run under mpirun (built with LOCIND_MPI; ctest label `mpi`): ranks
 // give the files of a single-process run under both assignments; a rank
 // killed with SIGKILL leaves the lead's journal intact and a rerun completes
-// it; a busy folder or a bad study file stops every rank with one message.
+// it; a busy folder or a bad study file stops every rank with one message;
+// external programs (a study's own learners) run on the ranks like the
+// built-in ones.
 //
 // The runs go through the real launcher: `mpirun --allow-run-as-root
 // --oversubscribe -np N` (as root in CI; 3 ranks on 2 cores) starting the
@@ -120,6 +122,49 @@ TEST_CASE("mpirun -np 2 (dispatch, static) and -np 3 --threads 2 give the files 
   REQUIRE(Mpirun(3, {study, "--out", s.Path("three"), "--threads", "2"}, s, &log) == kExitOk);
   CHECK(Count(log, "3 ranks x 2 threads, dispatch") == 1);
   CHECK(CompareFolders(s.dir / "one", s.dir / "three") == 10);
+}
+
+TEST_CASE("external programs (data and oracle questions) under mpirun -np 2 give the rows of one process") {
+  Scratch s("locind_runner_mpi_test_external");
+  // Asks the oracle one question on its standard streams (b against a given
+  // {b, c}) and reports a -> b when the answer is "connected".
+  const std::string asks = s.Write(
+      "asks.sh",
+      "echo 'b;a;b,c'\nread answer\n"
+      "if [ \"$answer\" = connected ]; then edges='\"a -> b\"'; else edges=''; fi\n"
+      "printf '{\"nodes\": [\"a\", \"b\", \"c\"], \"edges\": [%s]}' \"$edges\" > \"$1/graph.json\"\n");
+  // Reads nothing but the task folder: the graph a -> b, b -> c.
+  const std::string fixed = s.Write(
+      "fixed.sh",
+      "test -f \"$1/task.json\" || exit 4\n"
+      "printf '{\"nodes\": [\"a\", \"b\", \"c\"], \"edges\": [\"a -> b\", \"b -> c\"]}' "
+      "> \"$1/graph.json\"\n");
+  std::string text = kTinyStudy;
+  text.replace(text.find("  - {method: screen, test: hawkes-lr}\n"), 38, "");
+  text += "  - {program: [sh, " + asks + "], name: asks, needs: oracle}\n";
+  text += "  - {program: [sh, " + fixed + "], name: fixed, needs: data}\n";
+  const std::string study = s.Write("external.yaml", text);
+  REQUIRE(Run({study, "--out", s.Path("one")}) == kExitOk);
+  std::string log;
+  REQUIRE(Mpirun(2, {study, "--out", s.Path("ranks")}, s, &log) == kExitOk);
+  CHECK(Count(log, "2 ranks x 1 thread, dispatch; 0 of 8 units already done") == 1);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "ranks") == 10);
+  int asks_rows = 0, fixed_rows = 0;
+  for (const auto& r : ReadRows(s.dir / "ranks" / "replicates.csv")) {
+    if (r.at("learner") == "asks") {
+      ++asks_rows;
+      CHECK(r.at("status") == "ok");
+      CHECK(r.at("tests") == "1");     // the one question, counted as a test
+      CHECK(r.at("reported") == "1");  // a -> b: b depends on a given {b, c} in the truth
+    }
+    if (r.at("learner") == "fixed") {
+      ++fixed_rows;
+      CHECK(r.at("status") == "ok");
+      CHECK(r.at("reported") == "2");
+    }
+  }
+  CHECK(asks_rows == 8);  // 2 lengths x 4 replicates
+  CHECK(fixed_rows == 8);
 }
 
 TEST_CASE("a rank killed with SIGKILL: the journal keeps what was finished, a rerun completes it") {
