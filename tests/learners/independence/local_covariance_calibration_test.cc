@@ -397,7 +397,10 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
   const char* len_env = std::getenv("LOCIND_VARIANT_LENGTH");
   for (Setting s : {only}) {
     for (double horizon : {len_env ? std::atof(len_env) : 4000.0}) {
-      ReportVariants(s == Setting::kSpecified ? "specified" : "demo/omitted", horizon,
+      ReportVariants(s == Setting::kSpecified     ? "specified"
+                     : s == Setting::kAlternative ? "alternative"
+                                                  : "demo/omitted",
+                     horizon,
                      RunVariants(s, horizon, reps, seed, variants));
     }
   }
