@@ -8,7 +8,8 @@
 // is read from the header ("time,process" for events) unless --kind is
 // given. Tests: hawkes-lr (default for events; chi-bar-squared reference),
 // hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
-// event-local-covariance, event-local-covariance-end; drift-exact-lr
+// event-local-covariance, event-local-covariance-end,
+// event-local-covariance-batch; drift-exact-lr
 // (default for paths), drift-f, drift-robust-wald. --rates sets the
 // exponential rate grid (events) or the filter rates (paths; refused with
 // drift-exact-lr, which has none). Process ids follow app/io/process_id.h
@@ -246,6 +247,8 @@ const char kTestHelp[] =
     "    event-local-covariance  no parametric model: cross-fitted local covariance of B's\n"
     "                          residual with A's part predictable from C; sup-|Brownian motion|\n"
     "    event-local-covariance-end  the same, end-point chi-squared statistic\n"
+    "    event-local-covariance-batch  the same supremum, scaled by the larger of the\n"
+    "                          optional variation and a centred batch-means variance\n"
     "  paths:\n"
     "    drift-exact-lr (default)  A, C and B evolve as one linear SDE with independent noise;\n"
     "                          likelihood ratio on the exact Gaussian transition, chi-squared\n"

@@ -23,6 +23,8 @@ std::optional<learners::LocalCovarianceOptions> LocalCovarianceChoice(const std:
   learners::LocalCovarianceOptions options;
   if (name == "event-local-covariance-end") {
     options.statistic = learners::LocalCovarianceStatistic::kEndPoint;
+  } else if (name == "event-local-covariance-batch") {
+    options.batch_variance = learners::BatchVariance::kCentred;
   } else if (name != "event-local-covariance") {
     return std::nullopt;
   }
@@ -32,7 +34,8 @@ std::optional<learners::LocalCovarianceOptions> LocalCovarianceChoice(const std:
 const std::vector<std::string>& EventTestNames() {
   static const std::vector<std::string> names = {
       "hawkes-lr",        "hawkes-lr-chibar",       "hawkes-lr-chisq",
-      "hawkes-lr-signed", "event-local-covariance", "event-local-covariance-end"};
+      "hawkes-lr-signed", "event-local-covariance", "event-local-covariance-end",
+      "event-local-covariance-batch"};
   return names;
 }
 

@@ -6,7 +6,9 @@
 //               reference, conservative), hawkes-lr-signed,
 //               event-local-covariance (cross-fitted local covariance test,
 //               supremum statistic), event-local-covariance-end (its
-//               end-point chi-squared statistic)
+//               end-point chi-squared statistic), event-local-covariance-batch
+//               (supremum statistic scaled by the larger of the optional
+//               variation and a centred batch-means variance)
 //   path data:  drift-exact-lr (default), drift-f, drift-robust-wald
 #pragma once
 

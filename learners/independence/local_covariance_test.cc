@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "learners/independence/reference_distributions.h"
@@ -223,12 +224,57 @@ Nuisance FitNuisance(const Eigen::MatrixXd& z_grid, const Eigen::MatrixXd& x_gri
   return n;
 }
 
+// Batch-means variances of gamma_hat(T) from its increments over blocks
+// (increments[k][j] of component j over block k, of length lengths[k]):
+//   uncentred: sum_k Delta_k^2 (its mean is Var gamma_hat(T) plus the
+//     squared drift of each block, so a real effect inflates it);
+//   centred: sum_k (Delta_k - w_k gamma_hat(T))^2 / (1 - sum_k w_k^2),
+//     w_k = L_k / sum L: each increment less its share of the drift.
+// The centred form is the batch means estimator of simulation output
+// analysis (common practice; as in Flegal & Jones 2010, The Annals of
+// Statistics 38(2), "Batch means and spectral variance estimators in Markov
+// chain Monte Carlo", arXiv 0811.1729: b / (a - 1) sum_k (Y_k - mean)^2 for
+// a batches of b draws with means Y_k, which for the variance of the total
+// is a / (a - 1) times the sum of squared deviations of the batch sums
+// from their mean), with
+// the drift taken per unit time because the blocks' lengths differ a
+// little. The divisor makes it unbiased for uncorrelated increments of
+// variance proportional to length: E sum_k (Delta_k - w_k S)^2 =
+// sigma^2 T (1 - 2 sum w_k^2 + sum w_k^2), S = sum_k Delta_k; for equal
+// blocks 1 - 1/B, the usual n / (n - 1).
+void BatchVariances(const std::vector<std::vector<double>>& increments,
+                    const std::vector<double>& lengths, const Eigen::VectorXd& gamma,
+                    Eigen::VectorXd& uncentred, Eigen::VectorXd& centred) {
+  const Eigen::Index d = gamma.size();
+  uncentred = Eigen::VectorXd::Zero(d);
+  centred = Eigen::VectorXd::Zero(d);
+  double total = 0;
+  for (double l : lengths) total += l;
+  double squares = 0;  // sum_k w_k^2
+  for (double l : lengths) squares += (l / total) * (l / total);
+  for (size_t k = 0; k < increments.size(); ++k) {
+    const double w = total > 0 ? lengths[k] / total : 0;
+    for (Eigen::Index j = 0; j < d; ++j) {
+      const double delta = increments[k][size_t(j)];
+      uncentred[j] += delta * delta;
+      const double deviation = delta - w * gamma[j];
+      centred[j] += deviation * deviation;
+    }
+  }
+  // One block (or none): no spread to estimate from; zero leaves V_hat.
+  if (increments.size() < 2 || !(squares < 1)) {
+    centred.setZero();
+  } else {
+    centred /= 1 - squares;
+  }
+}
+
 // gamma_hat along time: events of b add G_hat(t_i), grid node g subtracts
 // w_g G_hat(s_g) lambda_hat(s_g). Both lists are sorted, so one merge gives
 // the path; its supremum is taken over the values after each step (the path
-// is monotone between two steps up to the quadrature). Also V_hat, and the
-// sum over blocks of each block's squared increment of gamma_hat (the
-// batch-means variance; blocks end at `boundaries`).
+// is monotone between two steps up to the quadrature). Also V_hat and the
+// two batch-means variances over the blocks (blocks end at `boundaries`;
+// a block's length is the sum of its grid weights).
 LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
                                    const Eigen::VectorXd& weights, const Eigen::MatrixXd& g_grid,
                                    const Eigen::VectorXd& lambda_grid,
@@ -239,13 +285,19 @@ LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
   LocalCovarianceEstimate e;
   // Per component, plain loops: the merge has one step per node and event.
   std::vector<double> gamma(size_t(d), 0.0), supremum(size_t(d), 0.0);
-  std::vector<double> block_start(size_t(d), 0.0), batch(size_t(d), 0.0);
+  std::vector<double> block_start(size_t(d), 0.0);
+  std::vector<std::vector<double>> increments;  // per block, per component
+  std::vector<double> lengths;                  // per block
+  double length = 0;
   const auto close_block = [&] {
+    std::vector<double> increment(static_cast<size_t>(d));
     for (size_t j = 0; j < size_t(d); ++j) {
-      const double increment = gamma[j] - block_start[j];
-      batch[j] += increment * increment;
+      increment[j] = gamma[j] - block_start[j];
       block_start[j] = gamma[j];
     }
+    increments.push_back(std::move(increment));
+    lengths.push_back(length);
+    length = 0;
   };
   size_t g = 0, i = 0, next = 0;
   while (g < grid_times.size() || i < event_times.size()) {
@@ -263,13 +315,14 @@ LocalCovarianceEstimate Accumulate(const std::vector<double>& grid_times,
       }
       supremum[size_t(j)] = std::max(supremum[size_t(j)], std::abs(value));
     }
+    if (!take_event) length += weights[Eigen::Index(g)];
     take_event ? ++i : ++g;
   }
   close_block();
   e.gamma = Eigen::Map<Eigen::VectorXd>(gamma.data(), d);
   e.supremum = Eigen::Map<Eigen::VectorXd>(supremum.data(), d);
   e.variance = g_events.transpose() * g_events;
-  e.batch_variance = Eigen::Map<Eigen::VectorXd>(batch.data(), d);
+  BatchVariances(increments, lengths, e.gamma, e.batch_variance, e.centred_batch_variance);
   return e;
 }
 
@@ -280,8 +333,9 @@ LocalCovarianceTest::LocalCovarianceTest(std::shared_ptr<HawkesFeatures> feature
     : features_(std::move(features)), options_(options) {}
 
 std::string LocalCovarianceTest::kind() const {
-  return options_.statistic == LocalCovarianceStatistic::kSupremum ? "event-local-covariance"
-                                                                   : "event-local-covariance-end";
+  if (options_.statistic == LocalCovarianceStatistic::kEndPoint) return "event-local-covariance-end";
+  return options_.batch_variance == BatchVariance::kCentred ? "event-local-covariance-batch"
+                                                            : "event-local-covariance";
 }
 
 TestResult LocalCovarianceTest::Run(const TestQuery& query) {
@@ -418,8 +472,13 @@ TestResult LocalCovarianceTest::Compute(const TestQuery& q) {
     // nuisances' own estimation noise (the term int G (lambda_hat - lambda)
     // ds, of mean zero but not of zero variance on a finite window, which
     // the optional variation leaves out) and any dependence between blocks.
-    const double v = options_.batch_variance ? std::max(e.variance(j, j), e.batch_variance[j])
-                                             : e.variance(j, j);
+    // Centred (event-local-covariance-batch): the increments less their
+    // drift, so a real effect does not inflate the scale.
+    double v = e.variance(j, j);
+    if (options_.batch_variance == BatchVariance::kUncentred) v = std::max(v, e.batch_variance[j]);
+    if (options_.batch_variance == BatchVariance::kCentred) {
+      v = std::max(v, e.centred_batch_variance[j]);
+    }
     if (!(v > 0)) continue;
     const double standardized = e.supremum[j] / std::sqrt(v);
     r.statistic = std::max(r.statistic, standardized);

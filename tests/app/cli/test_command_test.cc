@@ -16,10 +16,12 @@
 #include "app/io/event_csv.h"
 #include "app/io/error.h"
 #include "app/io/path_csv.h"
+#include "app/study/test_choice.h"
 #include "graph/dmg.h"
 #include "learners/independence/drift_test.h"
 #include "learners/independence/drift_transition_test.h"
 #include "learners/independence/hawkes_lr_test.h"
+#include "learners/independence/local_covariance_test.h"
 #include "sim/diffusion_simulator.h"
 #include "sim/hawkes_simulator.h"
 
@@ -74,7 +76,8 @@ TEST_CASE("--help names every test with what it assumes") {
   CHECK(r.err.empty());
   // Every name the study files and --test accept (app/study/test_choice.h).
   for (const char* name : {"hawkes-lr (default)", "hawkes-lr-chisq", "hawkes-lr-signed", "event-local-covariance",
-                           "event-local-covariance-end", "drift-exact-lr (default)", "drift-f", "drift-robust-wald"}) {
+                           "event-local-covariance-end", "event-local-covariance-batch",
+                           "drift-exact-lr (default)", "drift-f", "drift-robust-wald"}) {
     CHECK_MESSAGE(r.out.find(name) != std::string::npos, name);
   }
   CHECK(r.out.find("docs/tests.md") != std::string::npos);
@@ -124,6 +127,28 @@ TEST_CASE("test variants, rates and kind are options") {
   CHECK(r.code == kExitOk);
   CHECK(r.out.find("test: drift-robust-wald\n") != std::string::npos);
   CHECK(r.out.find("df: 4\n") != std::string::npos);
+}
+
+TEST_CASE("event-local-covariance-batch resolves to the centred batch-variance test") {
+  Files f;
+  const Outcome r = Run({f.events, "--target", "b", "--source", "a", "--given", "b", "--test",
+                         "event-local-covariance-batch"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.out.find("test: event-local-covariance-batch\n") != std::string::npos);
+  CHECK(IsEventTestName("event-local-covariance-batch"));
+  const std::optional<learners::LocalCovarianceOptions> chosen =
+      LocalCovarianceChoice("event-local-covariance-batch");
+  REQUIRE(chosen.has_value());
+  CHECK(chosen->batch_variance == learners::BatchVariance::kCentred);
+  CHECK(chosen->statistic == learners::LocalCovarianceStatistic::kSupremum);
+  // The same numbers as the library test with the default rate grid.
+  auto features = std::make_shared<learners::HawkesFeatures>(
+      learners::HawkesFeatures::Create(f.event_data, learners::DefaultHawkesRates(f.event_data)).value());
+  const learners::TestResult direct =
+      learners::LocalCovarianceTest(features, {.batch_variance = learners::BatchVariance::kCentred})
+          .Run({1, {0}, {1}});
+  CHECK(r.out.find("statistic: " + base::FormatNumber(direct.statistic) + "\n") != std::string::npos);
+  CHECK(r.out.find("p_value: " + base::FormatNumber(direct.p_value) + "\n") != std::string::npos);
 }
 
 TEST_CASE("a query without the target's own past is said so, with a warning on stderr") {

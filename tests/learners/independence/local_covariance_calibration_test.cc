@@ -29,12 +29,15 @@
 // Seeds: 7 was used while developing (results in docs/tests.md); the seeds
 // below were run once, after the code was fixed.
 //
-// Two more cases, skipped unless run with --no-skip, compare the nuisance
-// options of LocalCovarianceOptions (environment LOCIND_VARIANT_SEED,
-// _REPS, _LENGTH, _SETTING, _SET choose the run): "nuisance basis variants"
-// on one query, and "pooled demo nulls" on every true null b _||_ a | {b}
-// or {b, c} of the demo graph. They print counts and assert nothing; their
-// measured tables are in docs/tests.md.
+// Three more cases, skipped unless run with --no-skip, compare the options
+// of LocalCovarianceOptions (environment LOCIND_VARIANT_SEED, _REPS,
+// _LENGTH, _SETTING, _SET choose the run; _SET=centred compares the default
+// with the uncentred and centred batch variances): "nuisance basis
+// variants" on one query, "pooled demo nulls" on every true null
+// b _||_ a | {b} or {b, c} of the demo graph, and "strong effect p-values"
+// (LOCIND_VARIANT_SEEDS). They print and assert nothing; their measured
+// tables are in docs/tests.md.
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 #include <string>
@@ -51,6 +54,7 @@
 #include "sim/hawkes_model.h"
 #include "sim/hawkes_simulator.h"
 #include "tests/learners/independence/calibration_checks.h"
+#include "tests/learners/independence/two_process_draw.h"
 
 namespace locind::learners {
 namespace {
@@ -377,7 +381,12 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
   if (set && std::string(set) == "default") variants.resize(1);
   if (set && std::string(set) == "batch") {
     variants.assign(2, LocalCovarianceOptions{});
-    variants[1].batch_variance = true;
+    variants[1].batch_variance = BatchVariance::kUncentred;
+  }
+  if (set && std::string(set) == "centred") {  // default, uncentred, centred
+    variants.assign(3, LocalCovarianceOptions{});
+    variants[1].batch_variance = BatchVariance::kUncentred;
+    variants[2].batch_variance = BatchVariance::kCentred;
   }
   const char* which = std::getenv("LOCIND_VARIANT_SETTING");
   const Setting only = which && std::string(which) == "alternative" ? Setting::kAlternative
@@ -388,9 +397,47 @@ TEST_CASE("nuisance basis variants" * doctest::skip()) {
   const char* len_env = std::getenv("LOCIND_VARIANT_LENGTH");
   for (Setting s : {only}) {
     for (double horizon : {len_env ? std::atof(len_env) : 4000.0}) {
-      ReportVariants(s == Setting::kSpecified ? "specified" : "demo/omitted", horizon,
+      ReportVariants(s == Setting::kSpecified     ? "specified"
+                     : s == Setting::kAlternative ? "alternative"
+                                                  : "demo/omitted",
+                     horizon,
                      RunVariants(s, horizon, reps, seed, variants));
     }
+  }
+}
+
+// A strong effect (two processes a -> b, weight 0.5, window 1,000; the
+// draw of the unit tests) on the seeds in LOCIND_VARIANT_SEEDS (comma
+// separated): p-values of hawkes-lr, the default local covariance test and
+// its uncentred and centred batch-variance options (skipped unless run with
+// --no-skip; prints, asserts nothing).
+TEST_CASE("strong effect p-values" * doctest::skip()) {
+  const char* env = std::getenv("LOCIND_VARIANT_SEEDS");
+  std::string list = env ? env : "3";
+  size_t at = 0;
+  while (at <= list.size()) {
+    const size_t comma = std::min(list.find(',', at), list.size());
+    const uint64_t seed = std::strtoull(list.substr(at, comma - at).c_str(), nullptr, 10);
+    at = comma + 1;
+    const sim::EventData d = DrawTwoProcesses(0.5, 1000, seed);
+    auto features = std::make_shared<HawkesFeatures>(
+        HawkesFeatures::Create(d, DefaultHawkesRates(d)).value());
+    const TestQuery q{1, {0}, {1}};
+    std::printf("strong effect seed %llu: hawkes-lr %.3g", (unsigned long long)seed,
+                HawkesLrTest(features, {.chi_bar_draws = 2000, .seed = seed}).Run(q).p_value);
+    for (BatchVariance b : {BatchVariance::kNone, BatchVariance::kUncentred, BatchVariance::kCentred}) {
+      const Result<LocalCovarianceEstimate> e =
+          LocalCovarianceTest(features, {.batch_variance = b}).Estimate(q);
+      std::printf(", %s %.3g", b == BatchVariance::kNone ? "default" : b == BatchVariance::kUncentred ? "uncentred" : "centred",
+                  LocalCovarianceTest(features, {.batch_variance = b}).Run(q).p_value);
+      if (b == BatchVariance::kNone && e.ok()) {
+        std::printf(" (V_hat/uncentred/centred of component 0: %.4g/%.4g/%.4g, %d blocks)",
+                    e.value().variance(0, 0), e.value().batch_variance[0],
+                    e.value().centred_batch_variance[0], e.value().blocks);
+      }
+    }
+    std::printf("\n");
+    std::fflush(stdout);
   }
 }
 
@@ -409,16 +456,21 @@ TEST_CASE("pooled demo nulls" * doctest::skip()) {
   const char* which = std::getenv("LOCIND_VARIANT_SETTING");
   const bool fixed = which && std::string(which) == "fixed";
   std::vector<LocalCovarianceOptions> variants(4);
-  variants[1].batch_variance = true;
-  variants[2].batch_variance = true;
+  variants[1].batch_variance = BatchVariance::kUncentred;
+  variants[2].batch_variance = BatchVariance::kUncentred;
   variants[2].folds = 3;
-  variants[3].batch_variance = true;
+  variants[3].batch_variance = BatchVariance::kUncentred;
   variants[3].nuisance_rates = 6;
   variants[3].quadratic = true;
   variants[3].ridge = 1e-2;
   const char* set = std::getenv("LOCIND_VARIANT_SET");
   if (set && std::string(set) == "default") variants.resize(1);
   if (set && std::string(set) == "batch") variants.resize(2);
+  if (set && std::string(set) == "centred") {  // default, uncentred, centred
+    variants.resize(3);
+    variants[2] = LocalCovarianceOptions{};
+    variants[2].batch_variance = BatchVariance::kCentred;
+  }
   const graph::TruthGraph truth = Truth(Setting::kDemoDrawn);
   OracleTest oracle = OracleTest::FromTruth(truth).value();
   std::vector<std::vector<double>> p(variants.size() + 1);

@@ -57,12 +57,14 @@ TEST_CASE("with an empty C the estimate matches a direct computation") {
     return int((std::upper_bound(cut.begin() + 1, cut.end() - 1, t) - cut.begin() - 1) % 2);
   };
   double x_time[2] = {0, 0}, length[2] = {0, 0};
+  double x_block[20] = {};  // int of x over each block
   int count[2] = {0, 0};
   for (int k = 0; k < 20; ++k) {
     const double u = cut[size_t(k)], v = cut[size_t(k) + 1];
     for (double s : d.times[0]) {
-      if (s < v) x_time[k % 2] += std::exp(-r * (std::max(u, s) - s)) - std::exp(-r * (v - s));
+      if (s < v) x_block[k] += std::exp(-r * (std::max(u, s) - s)) - std::exp(-r * (v - s));
     }
+    x_time[k % 2] += x_block[k];
     length[k % 2] += v - u;
   }
   for (double t : d.times[1]) ++count[fold(t)];
@@ -81,6 +83,30 @@ TEST_CASE("with an empty C the estimate matches a direct computation") {
   CHECK(e.value().gamma[0] == doctest::Approx(gamma).epsilon(1e-6));
   CHECK(e.value().variance(0, 0) == doctest::Approx(variance).epsilon(1e-6));
   CHECK(e.value().supremum[0] >= std::abs(e.value().gamma[0]));
+  // Batch variances from the same closed forms, block by block: the
+  // increment of block k (fold m = k % 2) is the sum of G over b's events
+  // in it less rate_other * int_block (x - mean_other) ds; the centred form
+  // removes (L_k / T) gamma(T) from each and divides by 1 - sum (L_k / T)^2
+  // (the definition in local_covariance_test.h).
+  double increment[20] = {};
+  for (double t : d.times[1]) {
+    const int k = int(std::upper_bound(cut.begin() + 1, cut.end() - 1, t) - cut.begin() - 1);
+    increment[k] += Filtered(d.times[0], r, t) - x_time[1 - k % 2] / length[1 - k % 2];
+  }
+  const double window = cut.back() - cut.front();
+  double uncentred = 0, centred = 0, squares = 0;
+  for (int k = 0; k < 20; ++k) {
+    const int other = 1 - k % 2;
+    const double block = cut[size_t(k) + 1] - cut[size_t(k)];
+    increment[k] -= count[other] / length[other] * (x_block[k] - x_time[other] / length[other] * block);
+    uncentred += increment[k] * increment[k];
+    const double w = block / window;
+    centred += (increment[k] - w * gamma) * (increment[k] - w * gamma);
+    squares += w * w;
+  }
+  centred /= 1 - squares;
+  CHECK(e.value().batch_variance[0] == doctest::Approx(uncentred).epsilon(1e-6));
+  CHECK(e.value().centred_batch_variance[0] == doctest::Approx(centred).epsilon(1e-6));
 }
 
 TEST_CASE("a strong effect is found, an absent one is not") {
@@ -96,6 +122,39 @@ TEST_CASE("a strong effect is found, an absent one is not") {
     CHECK(back.status == TestStatus::kOk);
     CHECK(back.p_value > 0.001);
   }
+}
+
+TEST_CASE("centred batch variance: a real effect does not inflate it") {
+  // The uncentred sum of squared block increments grows with the squared
+  // drift of gamma_hat (weight 0.5 here); the centred one removes it, so
+  // the test keeps the default's power on a strong effect.
+  const sim::EventData d = Draw(0.5, 1000, 3);
+  auto features = Features(d, DefaultHawkesRates(d));
+  LocalCovarianceTest centred(features, {.batch_variance = BatchVariance::kCentred});
+  const auto e = centred.Estimate({1, {0}, {1}});
+  REQUIRE(e.ok());
+  for (Eigen::Index j = 0; j < e.value().gamma.size(); ++j) {
+    CHECK(e.value().centred_batch_variance[j] < e.value().batch_variance[j]);
+  }
+  CHECK(centred.Run({1, {0}, {1}}).p_value < 1e-6);
+  // Regression values (the code's own output, 2026-12-02), query a given
+  // {a}, source b (a null: b does not drive a), on a draw where the centred
+  // batch variance exceeds V_hat for the middle rate, so it sets the scale.
+  const sim::EventData null_draw = Draw(0.3, 400, 26);
+  auto null_features = Features(null_draw, {0.5, 2.0, 8.0});
+  LocalCovarianceTest test(null_features, {.batch_variance = BatchVariance::kCentred});
+  const auto n = test.Estimate({0, {1}, {0}});
+  REQUIRE(n.ok());
+  CHECK(n.value().blocks == 20);
+  CHECK(n.value().centred_batch_variance[1] == doctest::Approx(279.61680754207555).epsilon(1e-6));
+  CHECK(n.value().variance(1, 1) == doctest::Approx(202.44813386855688).epsilon(1e-6));
+  const TestResult r = test.Run({0, {1}, {0}});
+  CHECK(r.statistic == doctest::Approx(2.9222668300694035).epsilon(1e-6));
+  CHECK(r.p_value == doctest::Approx(0.020849621984087734).epsilon(1e-6));
+  // The default scale (V_hat alone) on the same query: a smaller p-value.
+  CHECK(LocalCovarianceTest(null_features).Run({0, {1}, {0}}).p_value ==
+        doctest::Approx(0.0056263214281274667).epsilon(1e-6));
+  CHECK(test.kind() == "event-local-covariance-batch");
 }
 
 TEST_CASE("names, caching and not-estimable results") {
