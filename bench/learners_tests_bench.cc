@@ -105,7 +105,11 @@ void BM_HawkesLrTest(benchmark::State& state) {
 }
 BENCHMARK(BM_HawkesLrTest)->Unit(benchmark::kMillisecond)->Iterations(5);
 
+// Arg 0: event-local-covariance; arg 1: event-local-covariance-batch (the
+// centred batch-means variance besides V_hat).
 void BM_LocalCovarianceTest(benchmark::State& state) {
+  learners::LocalCovarianceOptions options;
+  if (state.range(0) == 1) options.batch_variance = learners::BatchVariance::kCentred;
   const sim::EventData data = HawkesData();
   const std::vector<double> rates = learners::DefaultHawkesRates(data);
   auto shared = std::make_shared<learners::HawkesFeatures>(
@@ -113,12 +117,12 @@ void BM_LocalCovarianceTest(benchmark::State& state) {
   const learners::TestQuery query{0, {1}, {0, 2, 3, 4}};
   learners::HawkesLrTest(shared).Run(query);  // fills the event features
   const double f0 = CpuSeconds();
-  learners::LocalCovarianceTest(shared).Run(query);  // fills the grid features
+  learners::LocalCovarianceTest(shared, options).Run(query);  // fills the grid features
   const double first_time = CpuSeconds() - f0;
   double local_time = 0, lr_time = 0;
   for (auto _ : state) {
     const double t0 = CpuSeconds();
-    learners::LocalCovarianceTest local(shared);
+    learners::LocalCovarianceTest local(shared, options);
     benchmark::DoNotOptimize(local.Run(query));
     const double t1 = CpuSeconds();
     state.PauseTiming();
@@ -137,7 +141,7 @@ void BM_LocalCovarianceTest(benchmark::State& state) {
   state.counters["lr_ms"] = 1e3 * lr_time / n;
   state.counters["ratio"] = local_time / lr_time;
 }
-BENCHMARK(BM_LocalCovarianceTest)->Unit(benchmark::kMillisecond)->Iterations(5);
+BENCHMARK(BM_LocalCovarianceTest)->Arg(0)->Arg(1)->Unit(benchmark::kMillisecond)->Iterations(5);
 
 sim::PathData DiffusionData() {
   const graph::TruthGraph truth = RandomTruth(10, 2);
