@@ -30,8 +30,10 @@
 // Why: F6(i) is the condition that tells a -> b from a driver of both a and
 // b (a <-> b); a strong dependence of b on a supports both equally, so it
 // cannot settle the conflict. A strong dependence of a on b given a's past is
-// what a driver of both makes and a real a -> b alone does not; when a does
-// not depend strongly on b, (S) keeps the edge on its own evidence. So
+// what a driver of both makes and a real a -> b alone does not (a real
+// b -> a beside it does: the price below); when a does not depend strongly on
+// b, (S) keeps the edge on its own evidence. (R) acts in pruning only; the
+// final phase uses (M) and (S). It needs no new test. So
 // outside F6(i), and inside it when the reverse is not strong, a strongly
 // supported directed edge is never removed by a separation drawn from data:
 // the conflict is settled by its own evidence. (Protecting
