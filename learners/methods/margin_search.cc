@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <string>
 #include <limits>
 #include <map>
 #include <tuple>
@@ -299,6 +300,23 @@ void AddPremises(const State& s, const Separation& z, const Edge& e, EdgeDecisio
   if (d.rule == "B2") add(z.source, z.target == b ? a : b, z.given);
 }
 
+// The reverse direction's evidence for a -> b: the largest p of the tests
+// "a from b" made in phase (i); NaN when none was made or one was not estimable.
+double ReverseEvidence(const State& s, const Edge& e) {
+  if (s.own_sets[e.to * s.n + e.from].empty()) return kNaN;
+  return s.own[e.to * s.n + e.from];
+}
+
+// Rule (R) of the header, for a tested F6(i) separation z against a -> b
+// that (S) set aside: when a is strongly dependent on b too, the dependence
+// of b on a is as well explained by a driver of both (the reason F6(i)
+// exists), so the separation with margin removes the directed edge.
+bool RefutesByReverse(const State& s, const Separation& z, const Edge& e) {
+  const double p_r = ReverseEvidence(s, e);
+  return !z.exact && z.p > SeparationMargin(s.level) && !std::isnan(p_r) &&
+         p_r <= StrongDependence(s.level);
+}
+
 void PruningPhase(State& s) {
   for (int a = 0; a < s.n; ++a) {
     if (s.upper.HasDirected(a, a)) s.lower.Add({a, a, EdgeKind::kDirected});
@@ -312,7 +330,10 @@ void PruningPhase(State& s) {
                                                        : RuleAgainstBidirected(s, z, e.from, e.to);
       if (rule == nullptr) continue;
       EdgeDecision& d = s.decisions[KeyOf(e)];
-      if (!Refutes(z.p, z.exact, p_e, s.level)) {
+      bool refutes = Refutes(z.p, z.exact, p_e, s.level);
+      const bool f6i = std::string(rule) == "F6(i)";
+      if (!refutes && f6i && RefutesByReverse(s, z, e)) refutes = true;
+      if (!refutes) {
         // (S) sets it aside; kept for the record if nothing else removes the edge.
         if (d.rule.empty()) {
           d.rule = "own evidence";

@@ -170,6 +170,78 @@ TEST_CASE("a strongly supported edge survives one missed composite dependence") 
   CHECK(rr.note.find("kept on their own evidence against a separation 1") != std::string::npos);
 }
 
+// The pumping station's truth (configs/demo.yaml) answered by its oracle, but
+// statistically: separated -> p = 0.9, connected -> p = 1e-6, one degree of
+// freedom each (so no answer is exact, and every answer is right); `reverse`
+// replaces the p-value of every test of operator_log from valve_alarm.
+class StatisticalOracle : public IndependenceTest {
+ public:
+  StatisticalOracle(OracleTest oracle, double reverse) : oracle_(std::move(oracle)), reverse_(reverse) {}
+  int processes() const override { return oracle_.processes(); }
+  const std::vector<std::string>& names() const override { return oracle_.names(); }
+  std::string kind() const override { return "statistical oracle"; }
+  TestResult Run(const TestQuery& q) override {
+    TestResult r = oracle_.Run(q);
+    r.df = 1;
+    r.p_value = r.p_value == 1 ? 0.9 : 1e-6;
+    if (q.target == 4 && q.sources == std::vector<int>{3} && r.p_value < 0.05) r.p_value = reverse_;
+    return r;
+  }
+
+ private:
+  OracleTest oracle_;
+  double reverse_;
+};
+
+graph::TruthGraph PumpingStation() {
+  graph::Dmg g({"pump_alarm", "pressure_alert", "flow_alert", "valve_alarm", "operator_log", "power_dip",
+                "maintenance"});
+  for (auto [a, b] : std::vector<std::pair<int, int>>{
+           {0, 1}, {1, 2}, {3, 2}, {2, 4}, {5, 0}, {5, 1}, {6, 3}, {6, 4}, {0, 0}, {2, 2}, {4, 4}, {5, 5}}) {
+    g.AddDirected(a, b);
+  }
+  return graph::TruthGraph{g, {5, 6}};
+}
+
+const EdgeDecision& DecisionOf(const LearnResult& r, int from, int to, EdgeKind kind) {
+  const auto it = std::find_if(r.decisions.begin(), r.decisions.end(), [&](const EdgeDecision& d) {
+    return d.edge.from == from && d.edge.to == to && d.edge.kind == kind;
+  });
+  REQUIRE(it != r.decisions.end());
+  return *it;
+}
+
+TEST_CASE("rule (R): a pair driven by a hidden process loses the directed edge F6(i) rules out") {
+  // The hidden maintenance process drives valve_alarm (3) and operator_log
+  // (4), so every test of either from the other is strongly dependent.
+  // operator_log -> valve_alarm is not in the maximal graph: under the oracle
+  // F6(i) removes it (valve_alarm separated from flow_alert given
+  // {valve_alarm}; operator_log connected from flow_alert). With strong
+  // answers in both directions rule (R) lets that tested separation remove it
+  // although (S) protects the edge's own evidence (p_e = 1e-6 <= 0.005).
+  const graph::TruthGraph truth = PumpingStation();
+  StatisticalOracle both_ways(*OracleTest::FromTruth(truth), 1e-6);
+  MarginSearch margin;
+  const LearnResult r = *margin.Learn(LearnInput{&both_ways, 0.05});
+  CHECK_FALSE(r.graph.HasDirected(4, 3));
+  const EdgeDecision& d = DecisionOf(r, 4, 3, EdgeKind::kDirected);
+  CHECK(d.rule == "F6(i)");
+  CHECK(d.phase == "pruning");
+  // Every answer is right, so nothing else separates it from the maximal
+  // graph of the truth (regression value: equal).
+  const graph::Dmg projected = *graph::LatentProjection(truth.graph, truth.hidden);
+  const BitGraph maximal_graph = *graph::MaximalGraph(*graph::ToBitGraph(projected));
+  CHECK(*graph::ToBitGraph(r.graph) == maximal_graph);
+
+  // When operator_log is only moderately dependent on valve_alarm (p = 0.02:
+  // dependent, not strong), (R) does not apply and (S) keeps the edge: the
+  // price stated in the header.
+  StatisticalOracle one_way(*OracleTest::FromTruth(truth), 0.02);
+  const LearnResult kept = *margin.Learn(LearnInput{&one_way, 0.05});
+  CHECK(kept.graph.HasDirected(4, 3));
+  CHECK(DecisionOf(kept, 4, 3, EdgeKind::kDirected).rule == "own evidence");
+}
+
 // A linear diffusion on 5 nodes, one of them hidden: x5 drives x1 and x2.
 sim::PathData DiffusionData(uint64_t seed) {
   const graph::TruthGraph truth = [] {
