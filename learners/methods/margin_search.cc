@@ -2,9 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
-#include <string>
 #include <limits>
 #include <map>
+#include <string>
 #include <tuple>
 
 #include "graph/mu_separation.h"
@@ -330,10 +330,10 @@ void PruningPhase(State& s) {
                                                        : RuleAgainstBidirected(s, z, e.from, e.to);
       if (rule == nullptr) continue;
       EdgeDecision& d = s.decisions[KeyOf(e)];
-      bool refutes = Refutes(z.p, z.exact, p_e, s.level);
-      const bool f6i = std::string(rule) == "F6(i)";
-      if (!refutes && f6i && RefutesByReverse(s, z, e)) refutes = true;
-      if (!refutes) {
+      const bool refutes = Refutes(z.p, z.exact, p_e, s.level);
+      const bool by_reverse =
+          !refutes && std::string(rule) == "F6(i)" && RefutesByReverse(s, z, e);
+      if (!refutes && !by_reverse) {
         // (S) sets it aside; kept for the record if nothing else removes the edge.
         if (d.rule.empty()) {
           d.rule = "own evidence";
@@ -346,6 +346,13 @@ void PruningPhase(State& s) {
       d.rule = rule;
       d.witnesses = {Witness(s, z.source, z.target, z.given)};
       AddPremises(s, z, e, d);
+      if (by_reverse) {
+        // (R) settled the conflict: the reverse tests "a from b" follow the
+        // premises, so the record shows why the own evidence did not keep it.
+        for (Mask given : s.own_sets[e.to * s.n + e.from]) {
+          d.witnesses.push_back(Witness(s, e.to, e.from, given));
+        }
+      }
       removed.push_back(e);
       break;
     }

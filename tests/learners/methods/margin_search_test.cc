@@ -227,6 +227,15 @@ TEST_CASE("rule (R): a pair driven by a hidden process loses the directed edge F
   const EdgeDecision& d = DecisionOf(r, 4, 3, EdgeKind::kDirected);
   CHECK(d.rule == "F6(i)");
   CHECK(d.phase == "pruning");
+  // The record shows why (S) did not keep it: after the separation and the
+  // premise come the reverse tests, operator_log (4) from valve_alarm (3),
+  // all strongly dependent (the rule of the header).
+  REQUIRE(d.witnesses.size() >= 3);
+  CHECK(d.witnesses[0].p_value > 0.2);
+  const TestRecord& last = d.witnesses.back();
+  CHECK(last.target == 4);
+  CHECK(last.sources == std::vector<int>{3});
+  CHECK(last.p_value <= 0.005);
   // Every answer is right, so nothing else separates it from the maximal
   // graph of the truth (regression value: equal).
   const graph::Dmg projected = *graph::LatentProjection(truth.graph, truth.hidden);
