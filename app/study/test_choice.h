@@ -7,7 +7,8 @@
 //               event-local-covariance (cross-fitted local covariance test,
 //               supremum statistic), event-local-covariance-end (its
 //               end-point chi-squared statistic)
-//   path data:  drift-exact-lr (default), drift-f, drift-robust-wald
+//   path data:  drift-exact-lr (default), drift-exact-lr-history, drift-f,
+//               drift-robust-wald
 #pragma once
 
 #include <cstdint>
@@ -50,13 +51,14 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 
 // Every path test name, the default first (for study files).
 const std::vector<std::string>& PathTestNameList();
-// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-f, drift-robust-wald".
+// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-exact-lr-history,
+// drift-f, drift-robust-wald".
 const char* PathTestNames();
 // The path test used when none is named.
 inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
 // The named path test ("" is the default) on `data`. `rates` are the filter
-// rates of the regression tests (empty: their defaults; ignored by
-// drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
+// rates of the regression tests and of drift-exact-lr-history's history
+// inputs (empty: their defaults; ignored by drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
 // the test's own message on invalid data.
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
                                                                  std::vector<double> rates = {});
