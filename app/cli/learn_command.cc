@@ -126,7 +126,7 @@ void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
-  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+  if (!IsPathTestName(o.test)) {
     throw UsageError{"unknown test '" + o.test + "' for path data (" + PathTestNames() + ")"};
   }
   auto made = MakePathTest(o.test, *in.paths);

@@ -101,7 +101,7 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o, std:
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
-  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+  if (!IsPathTestName(o.test)) {
     throw UsageError{"unknown test '" + o.test + "' for paths (" + PathTestNames() + ")"};
   }
   auto made = MakePathTest(o.test, std::get<sim::PathData>(std::move(read)), ParseRates(o));

@@ -75,6 +75,11 @@ const std::vector<std::string>& PathTestNameList() {
   return names;
 }
 
+bool IsPathTestName(const std::string& name) {
+  const std::vector<std::string>& names = PathTestNameList();
+  return name.empty() || std::find(names.begin(), names.end(), name) != names.end();
+}
+
 const char* PathTestNames() {
   static const std::string joined = [] {
     std::string out;

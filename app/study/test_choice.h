@@ -51,6 +51,8 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 
 // Every path test name, the default first (for study files).
 const std::vector<std::string>& PathTestNameList();
+// True for "" (the default) and every PathTestNameList() entry.
+bool IsPathTestName(const std::string& name);
 // PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-exact-lr-history,
 // drift-f, drift-robust-wald".
 const char* PathTestNames();
