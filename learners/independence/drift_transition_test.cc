@@ -368,14 +368,17 @@ Result<TransitionFit> DriftTransitionTest::FitWithHistory(const std::vector<int>
     return Status::Error("irregular sampling: more than " + std::to_string(kMaxDistinctSpacings) +
                          " distinct spacings");
   }
-  std::vector<int> hcols;  // the filtered columns of the history processes
-  if (target >= 0) {
-    const int rate_count = int(options_.rates.size());
-    for (int j : history)
-      for (int k = 0; k < rate_count; ++k) hcols.push_back(j * rate_count + k);
+  if (!history.empty() && (target < 0 || target >= Eigen::Index(coords.size()))) {
+    return Status::Error("history inputs need a target coordinate");
   }
-  if (!hcols.empty()) target = std::clamp<Eigen::Index>(target, 0, Eigen::Index(coords.size()) - 1);
-  else target = -1;
+  for (int j : history) {
+    if (j < 0 || j >= data_.processes()) return Status::Error("history process out of range");
+  }
+  std::vector<int> hcols;  // the filtered columns of the history processes
+  const int rate_count = int(options_.rates.size());
+  for (int j : history)
+    for (int k = 0; k < rate_count; ++k) hcols.push_back(j * rate_count + k);
+  if (hcols.empty()) target = -1;
   std::vector<Block> blocks;
   for (const SpacingMoments& m : moments) {
     blocks.push_back({m.step, m.count, m.zz(coords, coords), m.yz(coords, coords), m.yy(coords, coords), {}, {}, {}});

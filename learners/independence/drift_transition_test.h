@@ -111,6 +111,8 @@ class DriftTransitionTest : public IndependenceTest {
   // (position in coords): the filtered histories, at every rate of
   // history_rates(), of the processes `history` (drift-exact-lr-history;
   // with `history` empty this is Fit). The input coefficients are profiled out.
+  // Also fails when `history` is not empty and `target` is not a position in
+  // coords, or a history process is out of range.
   Result<TransitionFit> FitWithHistory(const std::vector<int>& coords, const Eigen::MatrixX<bool>& allowed,
                                        Eigen::Index target, const std::vector<int>& history,
                                        const TransitionFit* start = nullptr);

@@ -187,6 +187,8 @@ TEST_CASE("history inputs: one coordinate, the fit is least squares on level and
   CHECK(fit.converged);
   CHECK(fit.M(0, 0) == doctest::Approx(m).epsilon(1e-4));
   CHECK(fit.log_likelihood == doctest::Approx(loglik).epsilon(1e-9));
+  CHECK(!test.FitWithHistory({0}, allowed, 1, {0}).ok());  // no coordinate 1
+  CHECK(!test.FitWithHistory({0}, allowed, 0, {2}).ok());  // no process 2
   // The inputs can only raise the likelihood.
   CHECK(fit.log_likelihood > test.Fit({0}, allowed).value().log_likelihood);
 }
