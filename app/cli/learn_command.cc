@@ -126,7 +126,7 @@ void LoadPaths(const LearnOptions& o, Inputs& in) {
   PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
   in.paths = std::make_unique<sim::PathData>(std::get<sim::PathData>(std::move(read)));
-  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+  if (!IsPathTestName(o.test)) {
     throw UsageError{"unknown test '" + o.test + "' for path data (" + PathTestNames() + ")"};
   }
   auto made = MakePathTest(o.test, *in.paths);
@@ -269,7 +269,8 @@ const char kLearnHelp[] =
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chisq, hawkes-lr-signed,\n"
     "                   event-local-covariance, event-local-covariance-end,\n"
     "                   event-local-covariance-batch;\n"
-    "                   paths: drift-exact-lr (default), drift-f, drift-robust-wald\n"
+    "                   paths: drift-exact-lr (default), drift-exact-lr-history,\n"
+    "                   drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
     "  --size K         screen only: at most K processes in C besides the target (default 1)\n"
     "  --penalty C      penalized-fit only: scale of the L1 weight (default 1)\n"

@@ -9,8 +9,8 @@
 // given. Tests: hawkes-lr (default for events; chi-bar-squared reference),
 // hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
 // event-local-covariance, event-local-covariance-end,
-// event-local-covariance-batch; drift-exact-lr
-// (default for paths), drift-f, drift-robust-wald. --rates sets the
+// event-local-covariance-batch; drift-exact-lr (default for paths),
+// drift-exact-lr-history, drift-f, drift-robust-wald. --rates sets the
 // exponential rate grid (events) or the filter rates (paths; refused with
 // drift-exact-lr, which has none). Process ids follow app/io/process_id.h
 // (numeric ids included).
@@ -102,7 +102,7 @@ std::unique_ptr<learners::IndependenceTest> EventTest(const TestOptions& o, std:
 std::unique_ptr<learners::IndependenceTest> PathTest(const TestOptions& o) {
   PathsOrError read = ReadPathTrials(o.data);
   if (auto* e = std::get_if<Errors>(&read)) throw *e;
-  if (!DriftTestChoice(o.test) && o.test != "drift-exact-lr") {
+  if (!IsPathTestName(o.test)) {
     throw UsageError{"unknown test '" + o.test + "' for paths (" + PathTestNames() + ")"};
   }
   auto made = MakePathTest(o.test, std::get<sim::PathData>(std::move(read)), ParseRates(o));
@@ -237,7 +237,8 @@ const char kTestHelp[] =
     "  a folder of such files is one data set of several trials (pooled, no history\n"
     "  crosses from one trial into the next); without a '# window:' line the window\n"
     "  runs from the first to the last event (a note says so)\n"
-    "  --rates R1,R2: exponential rates (events) or filter rates (drift-f, drift-robust-wald)\n"
+    "  --rates R1,R2: exponential rates (events) or filter rates (drift-exact-lr-history,\n"
+    "                drift-f, drift-robust-wald)\n"
     "tests and what they assume:\n"
     "  events:\n"
     "    hawkes-lr (default)   B's intensity is a linear Hawkes intensity of the histories of\n"
@@ -252,6 +253,8 @@ const char kTestHelp[] =
     "  paths:\n"
     "    drift-exact-lr (default)  A, C and B evolve as one linear SDE with independent noise;\n"
     "                          likelihood ratio on the exact Gaussian transition, chi-squared\n"
+    "    drift-exact-lr-history  the same, with filtered histories of C as nuisance inputs\n"
+    "                          to B's drift (for hidden processes acting through C's past)\n"
     "    drift-f               increments regressed on levels and filtered histories; F test\n"
     "    drift-robust-wald     the same regression, heteroskedasticity-robust Wald test\n"
     "  Every test holds its level only when its model can describe B given C: with a\n"

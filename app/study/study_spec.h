@@ -72,7 +72,7 @@ struct PathProcessSpec {
 struct LearnerSpec {
   std::string label;   // unique; "method/test" unless named in the file
   std::string method;  // registry name
-  std::string test;    // oracle, an EventTestNames() entry (app/study/test_choice.h), drift-exact-lr, drift-f, drift-robust-wald, none
+  std::string test;    // oracle, an EventTestNames() entry (app/study/test_choice.h), a PathTestNameList() entry, none
   int screening_size = 1;
   double penalty = -1;
   // --- An external learner (docs/external_learners.md): a program run per

@@ -73,8 +73,14 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 }
 
 const std::vector<std::string>& PathTestNameList() {
-  static const std::vector<std::string> names = {"drift-exact-lr", "drift-f", "drift-robust-wald"};
+  static const std::vector<std::string> names = {"drift-exact-lr", "drift-exact-lr-history", "drift-f",
+                                                 "drift-robust-wald"};
   return names;
+}
+
+bool IsPathTestName(const std::string& name) {
+  const std::vector<std::string>& names = PathTestNameList();
+  return name.empty() || std::find(names.begin(), names.end(), name) != names.end();
 }
 
 const char* PathTestNames() {
@@ -89,8 +95,13 @@ const char* PathTestNames() {
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
                                                                  std::vector<double> rates) {
   const std::string chosen = name.empty() ? std::string(kDefaultPathTest) : name;
-  if (chosen == "drift-exact-lr") {
-    Result<learners::DriftTransitionTest> made = learners::DriftTransitionTest::Create(std::move(data));
+  if (chosen == "drift-exact-lr" || chosen == "drift-exact-lr-history") {
+    learners::DriftTransitionOptions options;
+    if (chosen == "drift-exact-lr-history") {
+      options.history = true;
+      options.rates = std::move(rates);  // empty: the supported default filter rates
+    }
+    Result<learners::DriftTransitionTest> made = learners::DriftTransitionTest::Create(std::move(data), options);
     if (!made.ok()) return made.status();
     return std::unique_ptr<learners::IndependenceTest>(
         std::make_unique<learners::DriftTransitionTest>(std::move(made.value())));

@@ -9,7 +9,8 @@
 //               end-point chi-squared statistic), event-local-covariance-batch
 //               (supremum statistic scaled by the larger of the optional
 //               variation and a centred batch-means variance)
-//   path data:  drift-exact-lr (default), drift-f, drift-robust-wald
+//   path data:  drift-exact-lr (default), drift-exact-lr-history, drift-f,
+//               drift-robust-wald
 #pragma once
 
 #include <cstdint>
@@ -52,13 +53,16 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 
 // Every path test name, the default first (for study files).
 const std::vector<std::string>& PathTestNameList();
-// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-f, drift-robust-wald".
+// True for "" (the default) and every PathTestNameList() entry.
+bool IsPathTestName(const std::string& name);
+// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-exact-lr-history,
+// drift-f, drift-robust-wald".
 const char* PathTestNames();
 // The path test used when none is named.
 inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
 // The named path test ("" is the default) on `data`. `rates` are the filter
-// rates of the regression tests (empty: their defaults; ignored by
-// drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
+// rates of the regression tests and of drift-exact-lr-history's history
+// inputs (empty: their defaults; ignored by drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with
 // the test's own message on invalid data.
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,
                                                                  std::vector<double> rates = {});

@@ -23,6 +23,7 @@ constexpr double kSpacingTolerance = 1e-6;
 struct Block {
   double step, count;
   Eigen::MatrixXd zz, yz, yy;
+  Eigen::MatrixXd hh, hy, hz;  // history inputs (empty without them)
 };
 
 // Log-likelihood of the exact transitions with the offsets profiled out. For
@@ -32,9 +33,22 @@ struct Block {
 // cross-product is E = yy - yz F' - F yz' + F zz F', and
 //   l = -1/2 sum_D [count (d log 2 pi + log det Q) + tr(Q^{-1} E)].
 // -infinity when a transition overflows or Q is not positive definite.
+//
+// History inputs (blocks with hh non-empty, `target` >= 0): the drift of
+// coordinate `target` has the extra term gamma' H(t_i), held over the step, so
+// the mean of X(t+D) gains g gamma' H(t_i) with g = (int_0^D e^{Ms} ds) e_target,
+// the last column of exp([[M, e_target], [0, 0]] D) (Van Loan 1978,
+// Theorem 1). The residuals are r = e - g H' gamma with e = y - F z, and
+//   sum r' Q^{-1} r = sum e' Q^{-1} e - 2 gamma' u + gamma' W gamma,
+//   u = sum_D (hy - hz F') Q^{-1} g,  W = sum_D (g' Q^{-1} g) hh,
+// so profiling gamma = W^{-1} u adds u' W^{-1} u / 2 to l.
 double LogLikelihood(const std::vector<Block>& blocks, const Eigen::MatrixXd& M,
-                     const Eigen::VectorXd& sigma) {
+                     const Eigen::VectorXd& sigma, Eigen::Index target = -1) {
   const Eigen::Index d = M.rows();
+  const Eigen::Index k = target >= 0 ? blocks.front().hh.rows() : 0;
+  Eigen::VectorXd u = Eigen::VectorXd::Zero(k);
+  Eigen::MatrixXd w = Eigen::MatrixXd::Zero(k, k);
+  Eigen::MatrixXd input = Eigen::MatrixXd::Zero(d + 1, d + 1);
   double total = 0;
   Eigen::MatrixXd big = Eigen::MatrixXd::Zero(2 * d, 2 * d);
   for (const Block& b : blocks) {
@@ -54,6 +68,20 @@ double LogLikelihood(const std::vector<Block>& blocks, const Eigen::MatrixXd& M,
     if (!std::isfinite(log_det)) return kMinusInfinity;
     const double trace = llt.solve(resid).trace();
     total -= 0.5 * (b.count * (double(d) * std::log(2 * std::numbers::pi) + log_det) + trace);
+    if (k > 0) {
+      input.topLeftCorner(d, d) = M * b.step;
+      input(target, d) = b.step;
+      const Eigen::VectorXd g = input.exp().col(d).head(d);
+      if (!g.allFinite()) return kMinusInfinity;
+      const Eigen::VectorXd qg = llt.solve(g);
+      u.noalias() += (b.hy - b.hz * f.transpose()) * qg;
+      w += g.dot(qg) * b.hh;
+    }
+  }
+  if (k > 0) {
+    Eigen::LDLT<Eigen::MatrixXd> ldlt(w);
+    if (ldlt.info() != Eigen::Success) return kMinusInfinity;
+    total += 0.5 * u.dot(ldlt.solve(u));
   }
   return std::isfinite(total) ? total : kMinusInfinity;
 }
@@ -233,6 +261,11 @@ std::vector<int> Union(const std::vector<int>& a, const std::vector<int>& b) {
 Result<DriftTransitionTest> DriftTransitionTest::Create(sim::PathData data, DriftTransitionOptions options) {
   if (Status s = ValidatePathData(data); !s.ok()) return s;
   if (options.max_iterations < 1) return Status::Error("max_iterations must be at least 1");
+  if (!options.history && !options.rates.empty()) return Status::Error("filter rates need history inputs");
+  for (double r : options.rates) {
+    if (!(r > 0) || !std::isfinite(r)) return Status::Error("filter rates must be positive");
+  }
+  if (options.history && options.rates.empty()) options.rates = SupportedDriftRates(data, DefaultDriftRates(data));
   return DriftTransitionTest(std::move(data), options);
 }
 
@@ -254,7 +287,8 @@ const std::vector<DriftTransitionTest::SpacingMoments>& DriftTransitionTest::Mom
         moments_.emplace();
         return *moments_;
       }
-      out.push_back({step, 0, Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p)});
+      out.push_back({step, 0, Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p), Eigen::MatrixXd::Zero(p, p),
+                     {}, {}, {}});
     }
     group[r] = int(g);
     out[g].count += 1;
@@ -276,20 +310,93 @@ const std::vector<DriftTransitionTest::SpacingMoments>& DriftTransitionTest::Mom
     out[g].yz.noalias() += y * z.transpose();
     out[g].yy.noalias() += y * y.transpose();
   }
+  // History inputs: the filtered columns of drift-f (DriftTest), F_i = a F_{i-1}
+  // + (1 - a) X_{i-1}, a = exp(-r (t_i - t_{i-1})), F = X at each trial's first sample.
+  const Eigen::Index rate_count = Eigen::Index(options_.rates.size());
+  const Eigen::Index hp = p * rate_count;
+  if (hp > 0) {
+    Eigen::MatrixXd h(data_.samples(), hp);
+    for (Eigen::Index j = 0; j < p; ++j) {
+      for (Eigen::Index k = 0; k < rate_count; ++k) {
+        double filtered = data_.values(0, j);
+        h(0, j * rate_count + k) = filtered;
+        for (int i = 1; i < data_.samples(); ++i) {
+          if (data_.starts_trial(i)) {
+            filtered = data_.values(i, j);
+          } else {
+            const double a = std::exp(-options_.rates[size_t(k)] * (data_.time[i] - data_.time[i - 1]));
+            filtered = a * filtered + (1 - a) * data_.values(i - 1, j);
+          }
+          h(i, j * rate_count + k) = filtered;
+        }
+      }
+    }
+    std::vector<Eigen::VectorXd> hbar(out.size(), Eigen::VectorXd::Zero(hp));
+    for (size_t r = 0; r < n; ++r) hbar[size_t(group[r])] += h.row(steps[r]).transpose();
+    for (size_t g = 0; g < out.size(); ++g) {
+      hbar[g] /= out[g].count;
+      out[g].hh = Eigen::MatrixXd::Zero(hp, hp);
+      out[g].hy = Eigen::MatrixXd::Zero(hp, p);
+      out[g].hz = Eigen::MatrixXd::Zero(hp, p);
+    }
+    for (size_t r = 0; r < n; ++r) {
+      const Eigen::Index i = steps[r];
+      const size_t g = size_t(group[r]);
+      const Eigen::VectorXd x = h.row(i).transpose() - hbar[g];
+      const Eigen::VectorXd z = data_.values.row(i).transpose() - zbar[g];
+      const Eigen::VectorXd y = data_.values.row(i + 1).transpose() - ybar[g];
+      out[g].hh.noalias() += x * x.transpose();
+      out[g].hy.noalias() += x * y.transpose();
+      out[g].hz.noalias() += x * z.transpose();
+    }
+  }
   moments_ = std::move(out);
   return *moments_;
 }
 
 Result<TransitionFit> DriftTransitionTest::Fit(const std::vector<int>& coords, const Eigen::MatrixX<bool>& allowed,
                                                const TransitionFit* start) {
+  return FitWithHistory(coords, allowed, -1, {}, start);
+}
+
+Result<TransitionFit> DriftTransitionTest::FitWithHistory(const std::vector<int>& coords,
+                                                          const Eigen::MatrixX<bool>& allowed, Eigen::Index target,
+                                                          const std::vector<int>& history,
+                                                          const TransitionFit* start) {
   const std::vector<SpacingMoments>& moments = Moments();
   if (moments.empty()) {
     return Status::Error("irregular sampling: more than " + std::to_string(kMaxDistinctSpacings) +
                          " distinct spacings");
   }
+  if (!history.empty() && (target < 0 || target >= Eigen::Index(coords.size()))) {
+    return Status::Error("history inputs need a target coordinate");
+  }
+  for (int j : history) {
+    if (j < 0 || j >= data_.processes()) return Status::Error("history process out of range");
+  }
+  std::vector<int> hcols;  // the filtered columns of the history processes
+  const int rate_count = int(options_.rates.size());
+  for (int j : history)
+    for (int k = 0; k < rate_count; ++k) hcols.push_back(j * rate_count + k);
+  if (hcols.empty()) target = -1;
   std::vector<Block> blocks;
   for (const SpacingMoments& m : moments) {
-    blocks.push_back({m.step, m.count, m.zz(coords, coords), m.yz(coords, coords), m.yy(coords, coords)});
+    blocks.push_back({m.step, m.count, m.zz(coords, coords), m.yz(coords, coords), m.yy(coords, coords), {}, {}, {}});
+    if (!hcols.empty()) {
+      blocks.back().hh = m.hh(hcols, hcols);
+      blocks.back().hy = m.hy(hcols, coords);
+      blocks.back().hz = m.hz(hcols, coords);
+    }
+  }
+  if (!hcols.empty()) {
+    Eigen::MatrixXd gram = Eigen::MatrixXd::Zero(Eigen::Index(hcols.size()), Eigen::Index(hcols.size()));
+    for (const Block& b : blocks) gram += b.hh;
+    const Eigen::VectorXd scale = gram.diagonal().cwiseMax(1e-300).cwiseSqrt().cwiseInverse();
+    const Eigen::MatrixXd unit = scale.asDiagonal() * gram * scale.asDiagonal();
+    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(unit, Eigen::EigenvaluesOnly);
+    if (!(eig.eigenvalues().minCoeff() > 1e-12 * eig.eigenvalues().maxCoeff())) {
+      return Status::Error("singular design: the filtered histories are collinear");
+    }
   }
   Eigen::MatrixXd M;
   Eigen::VectorXd sigma;
@@ -299,7 +406,7 @@ Result<TransitionFit> DriftTransitionTest::Fit(const std::vector<int>& coords, c
     Eigen::MatrixXd m;
     Eigen::VectorXd s;
     layout.Unpack(theta, m, s);
-    return LogLikelihood(blocks, m, s);
+    return LogLikelihood(blocks, m, s, target);
   };
   Maximum best = Bfgs(objective, layout.Pack(M, sigma), options_.max_iterations);
   if (start != nullptr) {
@@ -325,7 +432,9 @@ TestResult DriftTransitionTest::Compute(const TestQuery& q) {
   const std::vector<int> coords = Union(Union(q.sources, q.given), {q.target});
   const Eigen::Index d = Eigen::Index(coords.size());
   const Eigen::Index n = data_.increments();
-  if (n < d * (d + 2) + 10) {
+  const std::vector<int> history = options_.history ? Union(q.given, {}) : std::vector<int>{};
+  const Eigen::Index inputs = Eigen::Index(history.size() * options_.rates.size());
+  if (n < d * (d + 2) + 10 + inputs) {
     return NotEstimable("too few samples: " + std::to_string(n) + " increments for " + std::to_string(d) +
                         " coordinates");
   }
@@ -335,11 +444,12 @@ TestResult DriftTransitionTest::Compute(const TestQuery& q) {
   Eigen::MatrixX<bool> full = Eigen::MatrixX<bool>::Constant(d, d, true);
   Eigen::MatrixX<bool> null = full;
   for (int a : q.sources) null(position(q.target), position(a)) = false;
-  Result<TransitionFit> restricted = Fit(coords, null);
+  const Eigen::Index target = position(q.target);
+  Result<TransitionFit> restricted = FitWithHistory(coords, null, target, history);
   if (!restricted.ok()) return NotEstimable(restricted.status().message());
   if (!restricted->converged) return NotEstimable("failed fit: the null model did not converge");
   // Starting the full fit at the null optimum as well keeps LR >= 0.
-  Result<TransitionFit> unrestricted = Fit(coords, full, &*restricted);
+  Result<TransitionFit> unrestricted = FitWithHistory(coords, full, target, history, &*restricted);
   if (!unrestricted.ok()) return NotEstimable(unrestricted.status().message());
   if (!unrestricted->converged) return NotEstimable("failed fit: the full model did not converge");
   TestResult r;

@@ -31,6 +31,26 @@
 // Several trials (sim::PathData::trial_starts): the transitions of every trial
 // enter one likelihood (log-likelihoods add); no step spans two trials.
 //
+// History inputs ("drift-exact-lr-history", options.history). A hidden
+// process between C and b (x3 -> h -> b) makes b's drift depend on the past
+// of C, not only its present, which no linear Markov model of X_V
+// represents. The variant adds to b's drift, in both models, the nuisance
+// term gamma' H(t), H = the filtered histories of every process of C at every
+// filter rate r of options.rates (default: drift-f's supported default rates,
+// SupportedDriftRates(DefaultDriftRates): at spacing 0.1, rate 1 from a window
+// of 50 and rate 0.1 from 500), with drift-f's recursion
+//   F_i = a F_{i-1} + (1 - a) X(t_{i-1}),  a = exp(-r (t_i - t_{i-1})),
+// (so H(t_i) uses only values before t_i), held constant over each step:
+//   dX = (c + M X + e_b gamma' H(t_i)) dt + diag(sigma) dW  on [t_i, t_{i+1}).
+// The transition stays exact given H(t_i): its mean gains
+// (int_0^D e^{Ms} ds) e_b gamma' H(t_i). gamma (|C| K entries) is profiled
+// out in closed form (generalised least squares given M and sigma); the
+// tested entries M(b, a) keep the exact-transition treatment. Statistic and
+// reference as above: LR, chi^2 with |A| degrees of freedom. Without
+// history columns (C empty, or no supported rate) it is drift-exact-lr.
+// Collinear filtered columns give "singular design"; the sample-size floor
+// grows by |C| K.
+//
 // Not estimable: fewer than d (d + 2) + 10 increments for d = |V|
 // ("too few samples"), a coordinate that never moves ("perfect fit"), a
 // singular Euler start ("singular design"), a fit that does not converge
@@ -55,6 +75,10 @@ inline constexpr int kMaxDistinctSpacings = 20;
 
 struct DriftTransitionOptions {
   int max_iterations = 500;  // BFGS iterations per fit
+  // drift-exact-lr-history: filtered histories of the conditioning processes
+  // enter the target's drift as nuisance inputs (see the header comment).
+  bool history = false;
+  std::vector<double> rates = {};  // history filter rates; empty: the supported DefaultDriftRates
 };
 
 // One maximum-likelihood fit of the linear SDE on a set of coordinates.
@@ -73,7 +97,7 @@ class DriftTransitionTest : public IndependenceTest {
 
   int processes() const override { return data_.processes(); }
   const std::vector<std::string>& names() const override { return data_.names; }
-  std::string kind() const override { return "drift-exact-lr"; }
+  std::string kind() const override { return options_.history ? "drift-exact-lr-history" : "drift-exact-lr"; }
   TestResult Run(const TestQuery& query) override;
 
   // Maximum-likelihood fit of the coordinates `coords` (sorted process
@@ -83,6 +107,18 @@ class DriftTransitionTest : public IndependenceTest {
   // irregular sampling, a singular Euler start or a non-moving coordinate.
   Result<TransitionFit> Fit(const std::vector<int>& coords, const Eigen::MatrixX<bool>& allowed,
                             const TransitionFit* start = nullptr);
+  // The same with history inputs in the drift of coordinate `target`
+  // (position in coords): the filtered histories, at every rate of
+  // history_rates(), of the processes `history` (drift-exact-lr-history;
+  // with `history` empty this is Fit). The input coefficients are profiled out.
+  // Also fails when `history` is not empty and `target` is not a position in
+  // coords, or a history process is out of range.
+  Result<TransitionFit> FitWithHistory(const std::vector<int>& coords, const Eigen::MatrixX<bool>& allowed,
+                                       Eigen::Index target, const std::vector<int>& history,
+                                       const TransitionFit* start = nullptr);
+
+  // The filter rates of the history inputs (empty unless options.history).
+  const std::vector<double>& history_rates() const { return options_.rates; }
 
   size_t distinct_queries() const { return cache_.size(); }
 
@@ -95,6 +131,9 @@ class DriftTransitionTest : public IndependenceTest {
     double step = 0;
     double count = 0;
     Eigen::MatrixXd zz, yz, yy;  // sums of (z - zbar)(z - zbar)', (y - ybar)(z - zbar)', ...
+    // With history inputs: the centred sums hh, hy = sum (h - hbar)(y - ybar)',
+    // hz over the filtered columns h (column j * K + k: process j, rate k).
+    Eigen::MatrixXd hh, hy, hz;
   };
   const std::vector<SpacingMoments>& Moments();
   TestResult Compute(const TestQuery& query);

@@ -127,6 +127,12 @@ TEST_CASE("test variants, rates and kind are options") {
   CHECK(r.code == kExitOk);
   CHECK(r.out.find("test: drift-robust-wald\n") != std::string::npos);
   CHECK(r.out.find("df: 4\n") != std::string::npos);
+  // drift-exact-lr-history takes filter rates; its df stays |A|.
+  r = Run({f.paths, "--target", "b", "--source", "a", "--given", "b", "--test", "drift-exact-lr-history",
+           "--rates", "1"});
+  CHECK(r.code == kExitOk);
+  CHECK(r.out.find("test: drift-exact-lr-history\n") != std::string::npos);
+  CHECK(r.out.find("df: 1\n") != std::string::npos);
 }
 
 TEST_CASE("event-local-covariance-batch resolves to the centred batch-variance test") {

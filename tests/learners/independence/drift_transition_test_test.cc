@@ -148,5 +148,92 @@ TEST_CASE("with trials the transitions pool: a trial given twice doubles the sta
   CHECK(g.statistic != doctest::Approx(b.statistic).epsilon(1e-4));
 }
 
+// drift-exact-lr-history.
+
+TEST_CASE("history inputs: one coordinate, the fit is least squares on level and filtered history") {
+  // With one coordinate and the input held over the step, the exact
+  // transition is X' = phi X + k + g gamma H + e with phi = e^{mD} and
+  // g = (e^{mD} - 1) / m: a bijective reparametrisation of the regression of
+  // X' on [1, X, H], so the maximum likelihood is ordinary least squares,
+  // l = -n/2 (log(2 pi RSS / n) + 1), and m = log(phi) / D (common practice,
+  // no source). H is drift-f's filter at rate 1, computed here by hand.
+  const sim::PathData d = Draw(0, 300, 3);
+  const Eigen::Index n = d.samples() - 1;
+  Eigen::VectorXd h(n);
+  double filtered = d.values(0, 0);
+  h[0] = filtered;
+  for (Eigen::Index i = 1; i < n; ++i) {
+    const double a = std::exp(-1.0 * (d.time[size_t(i)] - d.time[size_t(i - 1)]));
+    filtered = a * filtered + (1 - a) * d.values(i - 1, 0);
+    h[i] = filtered;
+  }
+  Eigen::MatrixXd x(n, 3);
+  x.col(0).setOnes();
+  x.col(1) = d.values.col(0).head(n);
+  x.col(2) = h;
+  const Eigen::VectorXd y = d.values.col(0).tail(n);
+  const Eigen::VectorXd beta = x.colPivHouseholderQr().solve(y);
+  const double rss = (y - x * beta).squaredNorm();
+  const double loglik = -0.5 * double(n) * (std::log(2 * std::numbers::pi * rss / double(n)) + 1);
+  const double m = std::log(beta[1]) / 0.1;
+
+  DriftTransitionOptions options;
+  options.history = true;
+  options.rates = {1.0};
+  auto test = DriftTransitionTest::Create(d, options).value();
+  CHECK(test.kind() == "drift-exact-lr-history");
+  const Eigen::MatrixX<bool> allowed = Eigen::MatrixX<bool>::Constant(1, 1, true);
+  const TransitionFit fit = test.FitWithHistory({0}, allowed, 0, {0}).value();
+  CHECK(fit.converged);
+  CHECK(fit.M(0, 0) == doctest::Approx(m).epsilon(1e-4));
+  CHECK(fit.log_likelihood == doctest::Approx(loglik).epsilon(1e-9));
+  CHECK(!test.FitWithHistory({0}, allowed, 1, {0}).ok());  // no coordinate 1
+  CHECK(!test.FitWithHistory({0}, allowed, 0, {2}).ok());  // no process 2
+  // The inputs can only raise the likelihood.
+  CHECK(fit.log_likelihood > test.Fit({0}, allowed).value().log_likelihood);
+}
+
+TEST_CASE("history inputs: without filtered columns the statistic is drift-exact-lr's") {
+  DriftTransitionOptions options;
+  options.history = true;
+  // Window 30 holds fewer than kMinFilterWindows = 50 time constants of the
+  // fastest default filter (1 / (10 * 0.1) = 1): no rate is supported.
+  const sim::PathData short_path = Draw(0.3, 30, 21);
+  auto none = DriftTransitionTest::Create(short_path, options).value();
+  CHECK(none.history_rates().empty());
+  const TestQuery q{1, {0}, {1}};
+  const TestResult a = DriftTransitionTest::Create(short_path).value().Run(q);
+  const TestResult b = none.Run(q);
+  REQUIRE(a.status == TestStatus::kOk);
+  REQUIRE(b.status == TestStatus::kOk);
+  CHECK(b.statistic == a.statistic);
+  // An empty C: no history processes.
+  const sim::PathData long_path = Draw(0.3, 600, 21);
+  auto empty_c = DriftTransitionTest::Create(long_path, options).value();
+  CHECK(empty_c.history_rates().size() == 2);  // rates 1 and 0.1 from a window of 600
+  const TestQuery unconditional{1, {0}, {}};
+  const TestResult c = DriftTransitionTest::Create(long_path).value().Run(unconditional);
+  const TestResult e = empty_c.Run(unconditional);
+  REQUIRE(c.status == TestStatus::kOk);
+  REQUIRE(e.status == TestStatus::kOk);
+  CHECK(e.statistic == c.statistic);
+}
+
+TEST_CASE("history inputs: regression value, and bad rates are refused") {
+  DriftTransitionOptions options;
+  options.history = true;
+  auto test = DriftTransitionTest::Create(Draw(0.3, 600, 23), options).value();
+  const TestResult r = test.Run({1, {0}, {1}});
+  REQUIRE(r.status == TestStatus::kOk);
+  CHECK(r.df == 1);
+  CHECK(r.statistic == doctest::Approx(26.03833762).epsilon(1e-5));  // regression value
+  CHECK(r.p_value < 1e-6);  // coupling 0.3 over a window of 600: a clear effect
+  options.rates = {1.0, -1.0};
+  CHECK(!DriftTransitionTest::Create(Draw(0.3, 50, 23), options).ok());
+  DriftTransitionOptions no_history;
+  no_history.rates = {1.0};
+  CHECK(!DriftTransitionTest::Create(Draw(0.3, 50, 23), no_history).ok());
+}
+
 }  // namespace
 }  // namespace locind::learners
