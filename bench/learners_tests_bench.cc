@@ -216,6 +216,34 @@ void BM_DriftExactLrTest(benchmark::State& state) {
 }
 BENCHMARK(BM_DriftExactLrTest)->Arg(3)->Arg(5)->Unit(benchmark::kMillisecond)->Iterations(3);
 
+// BM_DriftExactLrHistoryTest: drift-exact-lr-history on the same data and
+// query as BM_DriftExactLrTest (its default filter rates: two per process
+// of C), from a fresh test object. Counter `ratio_to_exact_lr`: its time
+// over that of drift-exact-lr on the same query, measured in the same loop.
+void BM_DriftExactLrHistoryTest(benchmark::State& state) {
+  const sim::PathData data = DiffusionData();
+  const int d = int(state.range(0));
+  learners::TestQuery query{0, {1}, {0}};
+  for (int j = 2; j < d; ++j) query.given.push_back(j);
+  double history_time = 0, exact_time = 0;
+  for (auto _ : state) {
+    const double t0 = CpuSeconds();
+    auto history = learners::DriftTransitionTest::Create(data, {.history = true}).value();
+    benchmark::DoNotOptimize(history.Run(query));
+    const double t1 = CpuSeconds();
+    state.PauseTiming();
+    const double t2 = CpuSeconds();
+    auto exact = learners::DriftTransitionTest::Create(data).value();
+    benchmark::DoNotOptimize(exact.Run(query));
+    const double t3 = CpuSeconds();
+    state.ResumeTiming();
+    history_time += t1 - t0;
+    exact_time += t3 - t2;
+  }
+  state.counters["ratio_to_exact_lr"] = history_time / exact_time;
+}
+BENCHMARK(BM_DriftExactLrHistoryTest)->Arg(3)->Arg(5)->Unit(benchmark::kMillisecond)->Iterations(3);
+
 }  // namespace
 
 BENCHMARK_MAIN();
