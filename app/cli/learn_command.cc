@@ -8,7 +8,7 @@
 // "time,<process ids>"), told apart by app/io/data_kind.h unless --kind says;
 // options the chosen method does not read (--size but for screen, --penalty
 // but for penalized-fit, --test and --level for a method without tests) are
-// refused. The test defaults to hawkes-lr for events and drift-exact-lr for
+// refused. The test defaults to hawkes-lr for events and drift-exact-lr-history for
 // paths. The learned graph is printed (graph file format plus the dashed
 // edges and a cost line, or with --json the shape of `locind graph class
 // --json`). With --out the directory receives graph.json, graph.dot,
@@ -269,7 +269,7 @@ const char kLearnHelp[] =
     "  --test NAME      events: hawkes-lr (default), hawkes-lr-chisq, hawkes-lr-signed,\n"
     "                   event-local-covariance, event-local-covariance-end,\n"
     "                   event-local-covariance-batch;\n"
-    "                   paths: drift-exact-lr (default), drift-exact-lr-history,\n"
+    "                   paths: drift-exact-lr-history (default), drift-exact-lr,\n"
     "                   drift-f, drift-robust-wald\n"
     "  --level L        reject independence when p <= L (default 0.05)\n"
     "  --size K         screen only: at most K processes in C besides the target (default 1)\n"

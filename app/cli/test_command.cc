@@ -9,8 +9,8 @@
 // given. Tests: hawkes-lr (default for events; chi-bar-squared reference),
 // hawkes-lr-chibar (alias), hawkes-lr-chisq, hawkes-lr-signed,
 // event-local-covariance, event-local-covariance-end,
-// event-local-covariance-batch; drift-exact-lr (default for paths),
-// drift-exact-lr-history, drift-f, drift-robust-wald. --rates sets the
+// event-local-covariance-batch; drift-exact-lr-history (default for
+// paths), drift-exact-lr, drift-f, drift-robust-wald. --rates sets the
 // exponential rate grid (events) or the filter rates (paths; refused with
 // drift-exact-lr, which has none). Process ids follow app/io/process_id.h
 // (numeric ids included).
@@ -206,7 +206,7 @@ int Test(const std::vector<std::string>& args, std::ostream& out, std::ostream& 
   const TestOptions o = ParseOptions(args);
   const bool events = DecideDataKind(o.data, o.kind) == DataKind::kEvents;
   // drift-exact-lr has no filter rates: --rates would be silently ignored.
-  if (!events && !o.rates.empty() && (o.test.empty() || o.test == "drift-exact-lr")) {
+  if (!events && !o.rates.empty() && o.test == "drift-exact-lr") {
     throw UsageError{"--rates is not used by drift-exact-lr; leave it out"};
   }
   std::unique_ptr<learners::IndependenceTest> test = events ? EventTest(o, err) : PathTest(o);
@@ -251,10 +251,11 @@ const char kTestHelp[] =
     "    event-local-covariance-batch  the same supremum, scaled by the larger of the\n"
     "                          optional variation and a centred batch-means variance\n"
     "  paths:\n"
-    "    drift-exact-lr (default)  A, C and B evolve as one linear SDE with independent noise;\n"
-    "                          likelihood ratio on the exact Gaussian transition, chi-squared\n"
-    "    drift-exact-lr-history  the same, with filtered histories of C as nuisance inputs\n"
-    "                          to B's drift (for hidden processes acting through C's past)\n"
+    "    drift-exact-lr-history (default)  A, C and B evolve as one linear SDE with\n"
+    "                          independent noise, B's drift also taking filtered histories of C\n"
+    "                          (hidden processes acting through C's past); likelihood ratio on\n"
+    "                          the exact Gaussian transition, chi-squared\n"
+    "    drift-exact-lr        the same without the histories of C\n"
     "    drift-f               increments regressed on levels and filtered histories; F test\n"
     "    drift-robust-wald     the same regression, heteroskedasticity-robust Wald test\n"
     "  Every test holds its level only when its model can describe B given C: with a\n"

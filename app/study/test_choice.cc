@@ -73,8 +73,8 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 }
 
 const std::vector<std::string>& PathTestNameList() {
-  static const std::vector<std::string> names = {"drift-exact-lr", "drift-exact-lr-history", "drift-f",
-                                                 "drift-robust-wald"};
+  static const std::vector<std::string> names = {"drift-exact-lr-history", "drift-exact-lr", "drift-f",
+                                                  "drift-robust-wald"};
   return names;
 }
 

@@ -9,7 +9,7 @@
 //               end-point chi-squared statistic), event-local-covariance-batch
 //               (supremum statistic scaled by the larger of the optional
 //               variation and a centred batch-means variance)
-//   path data:  drift-exact-lr (default), drift-exact-lr-history, drift-f,
+//   path data:  drift-exact-lr-history (default), drift-exact-lr, drift-f,
 //               drift-robust-wald
 #pragma once
 
@@ -55,11 +55,11 @@ std::optional<learners::DriftTestOptions> DriftTestChoice(const std::string& nam
 const std::vector<std::string>& PathTestNameList();
 // True for "" (the default) and every PathTestNameList() entry.
 bool IsPathTestName(const std::string& name);
-// PathTestNameList() joined by ", " (for messages): "drift-exact-lr, drift-exact-lr-history,
+// PathTestNameList() joined by ", " (for messages): "drift-exact-lr-history, drift-exact-lr,
 // drift-f, drift-robust-wald".
 const char* PathTestNames();
 // The path test used when none is named.
-inline constexpr const char* kDefaultPathTest = "drift-exact-lr";
+inline constexpr const char* kDefaultPathTest = "drift-exact-lr-history";
 // The named path test ("" is the default) on `data`. `rates` are the filter
 // rates of the regression tests and of drift-exact-lr-history's history
 // inputs (empty: their defaults; ignored by drift-exact-lr). Fails with "unknown path test '<name>' (<names>)" or with

@@ -138,10 +138,10 @@ TEST_CASE("a data run: path file with the drift test") {
   const Outcome o = Learn({file.string(), "--method", "pairwise"});
   CHECK(o.code == kExitOk);
   CHECK(o.out.rfind("nodes: [x1, x2]\n", 0) == 0);
-  CHECK(o.out.find("test drift-exact-lr, tests 4") != std::string::npos);
-  const Outcome h = Learn({file.string(), "--method", "pairwise", "--test", "drift-exact-lr-history"});
+  CHECK(o.out.find("test drift-exact-lr-history, tests 4") != std::string::npos);  // the default
+  const Outcome h = Learn({file.string(), "--method", "pairwise", "--test", "drift-exact-lr"});
   CHECK(h.code == kExitOk);
-  CHECK(h.out.find("test drift-exact-lr-history, tests 4") != std::string::npos);
+  CHECK(h.out.find("test drift-exact-lr, tests 4") != std::string::npos);
   std::filesystem::remove(file);
 }
 

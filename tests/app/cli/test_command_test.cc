@@ -77,7 +77,8 @@ TEST_CASE("--help names every test with what it assumes") {
   // Every name the study files and --test accept (app/study/test_choice.h).
   for (const char* name : {"hawkes-lr (default)", "hawkes-lr-chisq", "hawkes-lr-signed", "event-local-covariance",
                            "event-local-covariance-end", "event-local-covariance-batch",
-                           "drift-exact-lr (default)", "drift-f", "drift-robust-wald"}) {
+                           "drift-exact-lr-history (default)", "drift-exact-lr", "drift-f",
+                           "drift-robust-wald"}) {
     CHECK_MESSAGE(r.out.find(name) != std::string::npos, name);
   }
   CHECK(r.out.find("docs/tests.md") != std::string::npos);
@@ -108,10 +109,11 @@ TEST_CASE("JSON output for paths, with the kind read from the header") {
   const std::regex layout(
       "\\{\"query\": \"target b, sources \\{a\\}, given \\{b\\} \\(the target's own past is included\\)\", "
       "\"target_past_given\": true, \"target\": \"b\", \"sources\": \\[\"a\"\\], \"given\": \\[\"b\"\\], \"test\": "
-      "\"drift-exact-lr\", \"statistic\": [0-9.e+-]+, \"df\": 1, \"p_value\": [0-9.e+-]+, \"status\": "
+      "\"drift-exact-lr-history\", \"statistic\": [0-9.e+-]+, \"df\": 1, \"p_value\": [0-9.e+-]+, \"status\": "
       "\"ok\", \"reason\": \"\"\\}\n");
   CHECK(std::regex_match(r.out, layout));
-  auto test = learners::DriftTransitionTest::Create(f.path_data).value();
+  // The default path test is drift-exact-lr-history.
+  auto test = learners::DriftTransitionTest::Create(f.path_data, {.history = true}).value();
   const learners::TestResult direct = test.Run({1, {0}, {1}});
   CHECK(r.out.find("\"statistic\": " + base::FormatNumber(direct.statistic) + ",") != std::string::npos);
 }

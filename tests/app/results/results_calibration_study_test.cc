@@ -1,6 +1,6 @@
 // calibration.csv end to end on a study like configs/demo_diffusion.yaml at
 // window 3,200 (random truths, Euler step 0.02, interval 0.1, learners
-// pairwise and screen(1) with the default path test drift-exact-lr): the
+// pairwise and screen(1) with drift-exact-lr): the
 // first tests of each pair hold the level, while screen's follow-ups of a
 // pair whose first test was a true null and rejected (asked because of that
 // false rejection, on the same data) reject far more often, which is why
