@@ -34,6 +34,7 @@
 #include "sim/diffusion_model.h"
 #include "sim/diffusion_simulator.h"
 #include "tests/learners/independence/calibration_checks.h"
+#include "tests/learners/independence/path_designs.h"
 
 namespace locind::learners {
 namespace {
@@ -52,62 +53,9 @@ std::pair<double, double> ClopperPearson(int k, int n, double confidence) {
   return {lo, hi};
 }
 
-enum class Setting { kUncoupled, kChain, kOmittedParent, kHiddenMediator, kHiddenDriver, kAlternative };
-
-// The truth; the observed processes are always named so that the query is
-// x1 (last observed column) against x2 (column 0) given {x3, x1}.
-graph::TruthGraph Truth(Setting s) {
-  auto loops = [](graph::Dmg& g) {
-    for (int v = 0; v < g.size(); ++v) g.AddDirected(v, v);
-  };
-  switch (s) {
-    case Setting::kUncoupled:
-    case Setting::kAlternative: {
-      graph::Dmg g({"x2", "x1"});
-      if (s == Setting::kAlternative) g.AddDirected(0, 1);
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kChain: {
-      graph::Dmg g({"x2", "x3", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 2);
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kOmittedParent: {
-      graph::Dmg g({"x2", "x3", "p", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 3);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kHiddenMediator: {
-      graph::Dmg g({"x2", "x3", "h", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 2);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {2}};
-    }
-    case Setting::kHiddenDriver: {
-      graph::Dmg g({"h", "x2", "x3", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(0, 2);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {0}};
-    }
-  }
-  return {};
-}
-
-TestQuery Query(Setting s, const sim::PathData& d) {
-  const int b = d.processes() - 1;
-  if (s == Setting::kUncoupled || s == Setting::kAlternative) return {b, {0}, {b}};
-  return {b, {0}, {1, b}};  // with an omitted parent, p (column 2) is left out
-}
+using Setting = PathDesign;
+graph::TruthGraph Truth(Setting s) { return PathDesignTruth(s); }
+TestQuery Query(Setting s, const sim::PathData& d) { return PathDesignQuery(s, d); }
 
 struct PValues {
   std::vector<double> exact, regression;

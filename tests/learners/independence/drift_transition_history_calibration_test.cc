@@ -25,6 +25,7 @@
 #include "sim/diffusion_model.h"
 #include "sim/diffusion_simulator.h"
 #include "tests/learners/independence/calibration_checks.h"
+#include "tests/learners/independence/path_designs.h"
 
 namespace locind::learners {
 namespace {
@@ -33,57 +34,10 @@ constexpr int kChecks = 14;
 constexpr uint64_t kSeed = 7141;
 constexpr int kReplicates = 300;
 
-enum class Setting { kUncoupled, kChain, kOmittedParent, kHiddenMediator, kHiddenDriver };
-
-// The observed processes are named so that the query is x1 (last column)
-// against x2 (column 0) given {x3, x1}.
-graph::TruthGraph Truth(Setting s) {
-  auto loops = [](graph::Dmg& g) {
-    for (int v = 0; v < g.size(); ++v) g.AddDirected(v, v);
-  };
-  switch (s) {
-    case Setting::kUncoupled: {
-      graph::Dmg g({"x2", "x1"});
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kChain: {
-      graph::Dmg g({"x2", "x3", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 2);
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kOmittedParent: {
-      graph::Dmg g({"x2", "x3", "p", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 3);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {}};
-    }
-    case Setting::kHiddenMediator: {
-      graph::Dmg g({"x2", "x3", "h", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(1, 2);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {2}};
-    }
-    case Setting::kHiddenDriver: {
-      graph::Dmg g({"h", "x2", "x3", "x1"});
-      g.AddDirected(0, 1);
-      g.AddDirected(0, 2);
-      g.AddDirected(2, 3);
-      loops(g);
-      return {g, {0}};
-    }
-  }
-  return {};
-}
+using Setting = PathDesign;
 
 std::vector<double> Run(Setting s, double self_rate) {
-  const sim::DiffusionModel model = sim::LinearDiffusion(Truth(s), self_rate, 0.8, 1.0);
+  const sim::DiffusionModel model = sim::LinearDiffusion(PathDesignTruth(s), self_rate, 0.8, 1.0);
   sim::PathRunOptions o;
   o.horizon = 3200;
   o.interval = 0.1;
@@ -96,8 +50,7 @@ std::vector<double> Run(Setting s, double self_rate) {
     base::RandomStream random(
         base::StreamKey{kSeed, uint64_t(s), uint64_t(r), uint64_t(self_rate * 10)});
     const sim::PathData d = sim::SimulateDiffusion(model, o, random).value();
-    const int b = d.processes() - 1;
-    const TestQuery q = s == Setting::kUncoupled ? TestQuery{b, {0}, {b}} : TestQuery{b, {0}, {1, b}};
+    const TestQuery q = PathDesignQuery(s, d);
     auto test = DriftTransitionTest::Create(d, options).value();
     const TestResult t = test.Run(q);
     REQUIRE_MESSAGE(t.status == TestStatus::kOk, t.reason);
