@@ -15,6 +15,7 @@
 #include "app/report/report_figures.h"
 #include "app/results/results_calibration.h"
 #include "app/results/results_rows.h"
+#include "app/study/test_choice.h"
 #include "app/io/svg_render.h"
 
 namespace locind::app {
@@ -591,6 +592,20 @@ Status RenderFigure(ReportFigure& f) {
 
 }  // namespace
 
+// " Tests in this study: NAME (what it assumes); ..." for the distinct tests
+// of the study's learners ("" when none uses a test).
+static std::string TestsAssumed(const StudySpec& study) {
+  std::vector<std::string> seen;
+  std::string out;
+  for (const LearnerSpec& l : study.learners) {
+    const std::string text = TestAssumptions(l.test);
+    if (text.empty() || std::find(seen.begin(), seen.end(), l.test) != seen.end()) continue;
+    seen.push_back(l.test);
+    out += (out.empty() ? " Tests in this study: " : "; ") + l.test + " (" + text + ")";
+  }
+  return out.empty() ? out : out + ". Calibration of each: docs/tests.md.";
+}
+
 const std::string& ReportCaution() {
   static const std::string text =
       "Read the learned graphs as statistical hypotheses, not as proven mechanisms. Each rests on "
@@ -607,7 +622,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   ReportPage page;
   page.title = "Study report: " + study.name;
   page.study = StudyRows(study);
-  page.caution = ReportCaution();
+  page.caution = ReportCaution() + TestsAssumed(study);
   page.summary = data.summary;
   ReportSection rates{"rates", "Power and false edges", "Scored against the maximal graph N of each truth's "
                       "class: a learner can at best report N." + TruthsNote(data), {}};

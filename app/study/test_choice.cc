@@ -1,6 +1,7 @@
 #include "app/study/test_choice.h"
 
 #include <algorithm>
+#include <map>
 
 #include "app/io/error.h"
 #include "learners/independence/drift_transition_test.h"
@@ -90,6 +91,32 @@ const char* PathTestNames() {
     return out;
   }();
   return joined.c_str();
+}
+
+std::string TestAssumptions(const std::string& name) {
+  static const std::map<std::string, std::string> text = {
+      {"oracle", "answers from the truth's latent projection: no sampling error"},
+      {"hawkes-lr", "b's intensity is a linear Hawkes intensity of the histories of A and C "
+                    "(exponential kernels); chi-bar-squared reference"},
+      {"hawkes-lr-chibar", "the same as hawkes-lr"},
+      {"hawkes-lr-chisq", "the hawkes-lr model against plain chi-squared (below its level, less power)"},
+      {"hawkes-lr-signed", "a Hawkes intensity with softplus link (inhibition allowed); chi-squared reference"},
+      {"event-local-covariance", "no parametric model of b's intensity: cross-fitted local covariance, "
+                                 "consistent nuisance fits needed; slightly above its level at short windows"},
+      {"event-local-covariance-end", "the local covariance test with an end-point chi-squared statistic; "
+                                     "not safe with an omitted parent"},
+      {"event-local-covariance-batch", "the local covariance test scaled by a centred batch-means variance; "
+                                       "at or below its level where measured"},
+      {"drift-exact-lr-history", "a linear drift of A, C and b with independent noise, b's drift also taking "
+                                 "filtered histories of C; exact Gaussian transition, chi-squared reference"},
+      {"drift-exact-lr", "a linear Markov drift of A, C and b with independent noise; exact Gaussian "
+                         "transition; above its level when a slow parent of b is hidden or left out"},
+      {"drift-f", "increments regressed on levels and filtered histories; F test; above its level on "
+                  "grandparent chains at long windows"},
+      {"drift-robust-wald", "the drift-f regression with a heteroskedasticity-robust Wald test"},
+  };
+  const auto it = text.find(name);
+  return it == text.end() ? std::string() : it->second;
 }
 
 Result<std::unique_ptr<learners::IndependenceTest>> MakePathTest(const std::string& name, sim::PathData data,

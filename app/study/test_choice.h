@@ -58,6 +58,11 @@ bool IsPathTestName(const std::string& name);
 // PathTestNameList() joined by ", " (for messages): "drift-exact-lr-history, drift-exact-lr,
 // drift-f, drift-robust-wald".
 const char* PathTestNames();
+// One sentence on what the named test assumes and when it holds its level
+// (for the report; the fuller text is `locind test --help` and
+// docs/tests.md); "" for a name that is not a test.
+std::string TestAssumptions(const std::string& name);
+
 // The path test used when none is named.
 inline constexpr const char* kDefaultPathTest = "drift-exact-lr-history";
 // The named path test ("" is the default) on `data`. `rates` are the filter

@@ -229,6 +229,16 @@ TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   }
   CHECK(html.find("<script") == std::string::npos);
   CHECK(html.find("statistical hypotheses") != std::string::npos);  // the caution
+  // It names each test of the study once, with what the test assumes.
+  const bool named = html.find("Tests in this study: hawkes-lr (b&#39;s intensity is a linear Hawkes") !=
+                         std::string::npos ||
+                     html.find("Tests in this study: hawkes-lr (b's intensity is a linear Hawkes") !=
+                         std::string::npos;
+  CHECK(named);
+  CHECK(html.find("; oracle (answers from the truth") != std::string::npos);
+  const size_t caution_at = html.find("id=\"caution\"");
+  const std::string caution = html.substr(caution_at, html.find("</p>", caution_at) - caution_at);
+  CHECK(caution.find("hawkes-lr (") == caution.rfind("hawkes-lr ("));  // named once, though two learners use it
 }
 
 // The bars of "where edges are lost", built from the folder as the report
