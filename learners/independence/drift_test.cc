@@ -90,6 +90,23 @@ std::string DriftTest::kind() const {
   return options_.statistic == DriftStatistic::kF ? "drift-f" : "drift-robust-wald";
 }
 
+Eigen::VectorXd FilteredHistory(const sim::PathData& data, int process, double rate, Eigen::Index rows) {
+  Eigen::VectorXd f(rows);
+  if (rows == 0) return f;
+  double filtered = data.values(0, process);
+  f(0) = filtered;
+  for (Eigen::Index i = 1; i < rows; ++i) {
+    if (data.starts_trial(int(i))) {
+      filtered = data.values(i, process);  // a new trial: the filter restarts at its first value
+    } else {
+      const double a = std::exp(-rate * (data.time[i] - data.time[i - 1]));
+      filtered = a * filtered + (1 - a) * data.values(i - 1, process);
+    }
+    f(i) = filtered;
+  }
+  return f;
+}
+
 const Eigen::MatrixXd& DriftTest::Columns(int process) {
   auto it = columns_.find(process);
   if (it != columns_.end()) return it->second;
@@ -97,19 +114,7 @@ const Eigen::MatrixXd& DriftTest::Columns(int process) {
   const int k_count = static_cast<int>(options_.rates.size());
   Eigen::MatrixXd c(n, 1 + k_count);
   c.col(0) = data_.values.col(process).head(n);
-  for (int k = 0; k < k_count; ++k) {
-    double filtered = data_.values(0, process);
-    c(0, 1 + k) = filtered;
-    for (Eigen::Index i = 1; i < n; ++i) {
-      if (data_.starts_trial(int(i))) {
-        filtered = data_.values(i, process);  // a new trial: the filter restarts at its first value
-      } else {
-        const double a = std::exp(-options_.rates[k] * (data_.time[i] - data_.time[i - 1]));
-        filtered = a * filtered + (1 - a) * data_.values(i - 1, process);
-      }
-      c(i, 1 + k) = filtered;
-    }
-  }
+  for (int k = 0; k < k_count; ++k) c.col(1 + k) = FilteredHistory(data_, process, options_.rates[k], n);
   return columns_.emplace(process, std::move(c)).first->second;
 }
 

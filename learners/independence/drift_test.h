@@ -64,6 +64,14 @@ struct DriftTestOptions {
 
 std::vector<double> DefaultDriftRates(const sim::PathData& data, int count = 2);
 
+// The filtered history of `process` at `rate` on the first `rows` samples:
+//   F_0 = X(t_0),  F_i = a F_{i-1} + (1 - a) X(t_{i-1}),  a = exp(-rate (t_i - t_{i-1})),
+// restarting at X(t_i) at each trial's first sample, so F_i uses only values
+// before t_i (the first sample of a trial excepted) and never crosses a
+// trial boundary. Shared by drift-f's columns and drift-exact-lr-history's
+// inputs. REQUIRES: 0 <= process < data.processes(), rows <= data.samples().
+Eigen::VectorXd FilteredHistory(const sim::PathData& data, int process, double rate, Eigen::Index rows);
+
 // The rates r of `rates` whose time constant 1/r fits at least
 // kMinFilterWindows times into the window t_n - t_0 (with trials: the mean
 // trial length) (possibly none: then the

@@ -318,17 +318,7 @@ const std::vector<DriftTransitionTest::SpacingMoments>& DriftTransitionTest::Mom
     Eigen::MatrixXd h(data_.samples(), hp);
     for (Eigen::Index j = 0; j < p; ++j) {
       for (Eigen::Index k = 0; k < rate_count; ++k) {
-        double filtered = data_.values(0, j);
-        h(0, j * rate_count + k) = filtered;
-        for (int i = 1; i < data_.samples(); ++i) {
-          if (data_.starts_trial(i)) {
-            filtered = data_.values(i, j);
-          } else {
-            const double a = std::exp(-options_.rates[size_t(k)] * (data_.time[i] - data_.time[i - 1]));
-            filtered = a * filtered + (1 - a) * data_.values(i - 1, j);
-          }
-          h(i, j * rate_count + k) = filtered;
-        }
+        h.col(j * rate_count + k) = FilteredHistory(data_, int(j), options_.rates[size_t(k)], data_.samples());
       }
     }
     std::vector<Eigen::VectorXd> hbar(out.size(), Eigen::VectorXd::Zero(hp));
