@@ -33,10 +33,11 @@ size_t Draw(base::RandomStream& random, size_t n) {
 
 // Clusters in order of first appearance, so the draws depend only on the
 // order of the values, never on the cluster numbers themselves.
-std::vector<std::vector<const ClusteredValue*>> GroupByCluster(const std::vector<ClusteredValue>& values) {
+template <typename Value>
+std::vector<std::vector<const Value*>> GroupByCluster(const std::vector<Value>& values) {
   std::vector<int> ids;
-  std::vector<std::vector<const ClusteredValue*>> clusters;
-  for (const ClusteredValue& v : values) {
+  std::vector<std::vector<const Value*>> clusters;
+  for (const Value& v : values) {
     auto it = std::find(ids.begin(), ids.end(), v.cluster);
     if (it == ids.end()) {
       ids.push_back(v.cluster);
@@ -46,6 +47,55 @@ std::vector<std::vector<const ClusteredValue*>> GroupByCluster(const std::vector
     clusters[it - ids.begin()].push_back(&v);
   }
   return clusters;
+}
+
+// The two-stage resamples of ClusteredRatioInterval (where the design is
+// explained): `statistic` maps the values drawn in one resample to a number,
+// NaN when it is undefined there (such resamples are left out).
+template <typename Value, typename Statistic>
+std::vector<double> TwoStageResamples(const std::vector<Value>& values, int resamples,
+                                      base::RandomStream& random, Statistic statistic) {
+  const std::vector<std::vector<const Value*>> clusters = GroupByCluster(values);
+  std::vector<double> stats;
+  stats.reserve(resamples);
+  std::vector<const Value*> drawn;
+  for (int b = 0; b < resamples; ++b) {
+    drawn.clear();
+    for (size_t c = 0; c < clusters.size(); ++c) {
+      const std::vector<const Value*>& chosen = clusters[Draw(random, clusters.size())];
+      for (size_t i = 0; i < chosen.size(); ++i) drawn.push_back(chosen[Draw(random, chosen.size())]);
+    }
+    const double stat = statistic(drawn);
+    if (!std::isnan(stat)) stats.push_back(stat);
+  }
+  return stats;
+}
+
+double Ratio(const std::vector<const ClusteredValue*>& values) {
+  double num = 0, den = 0;
+  for (const ClusteredValue* v : values) {
+    num += v->numerator;
+    den += v->denominator;
+  }
+  return den > 0 ? num / den : kNaN;
+}
+
+double RatioDifference(const std::vector<const PairedValue*>& values) {
+  double num = 0, den = 0, ref_num = 0, ref_den = 0;
+  for (const PairedValue* v : values) {
+    num += v->numerator;
+    den += v->denominator;
+    ref_num += v->reference_numerator;
+    ref_den += v->reference_denominator;
+  }
+  return den > 0 && ref_den > 0 ? num / den - ref_num / ref_den : kNaN;
+}
+
+template <typename Value>
+std::vector<const Value*> Pointers(const std::vector<Value>& values) {
+  std::vector<const Value*> out;
+  for (const Value& v : values) out.push_back(&v);
+  return out;
 }
 
 }  // namespace
@@ -108,14 +158,8 @@ Interval ClopperPearsonInterval(int64_t successes, int64_t trials, double confid
 
 Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int resamples,
                                 base::RandomStream& random, double confidence) {
-  double numerator = 0, denominator = 0;
-  for (const ClusteredValue& v : values) {
-    numerator += v.numerator;
-    denominator += v.denominator;
-  }
-  const std::vector<std::vector<const ClusteredValue*>> clusters = GroupByCluster(values);
-  if (denominator == 0) return {kNaN, kNaN, kNaN};
-  const double estimate = numerator / denominator;
+  const double estimate = Ratio(Pointers(values));
+  if (std::isnan(estimate)) return {kNaN, kNaN, kNaN};
   // Stage 1 resamples the clusters (truths), stage 2 the replicates within
   // each drawn cluster, both with replacement (Davison & Hinkley 1997, sec.
   // 3.8 on hierarchical data, section number from memory; Field & Welsh
@@ -126,20 +170,18 @@ Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int r
   // stage 2 with replacement adds the within-truth variation back, which
   // makes the interval somewhat conservative when truths do not differ
   // (tests/metrics/cluster_coverage_test.cc measures it).
-  std::vector<double> stats;
-  stats.reserve(resamples);
-  for (int b = 0; b < resamples; ++b) {
-    double num = 0, den = 0;
-    for (size_t c = 0; c < clusters.size(); ++c) {
-      const std::vector<const ClusteredValue*>& chosen = clusters[Draw(random, clusters.size())];
-      for (size_t i = 0; i < chosen.size(); ++i) {
-        const ClusteredValue* v = chosen[Draw(random, chosen.size())];
-        num += v->numerator;
-        den += v->denominator;
-      }
-    }
-    if (den > 0) stats.push_back(num / den);
-  }
+  std::vector<double> stats = TwoStageResamples(values, resamples, random, Ratio);
+  const auto [low, high] = PercentileBounds(stats, confidence);
+  return {estimate, low, high};
+}
+
+Interval ClusteredRatioDifferenceInterval(const std::vector<PairedValue>& values, int resamples,
+                                          base::RandomStream& random, double confidence) {
+  const double estimate = RatioDifference(Pointers(values));
+  if (std::isnan(estimate)) return {kNaN, kNaN, kNaN};
+  // Each replicate is drawn with both learners' shares: the resamples keep
+  // the pairing, so what the two learners share (the data) cancels.
+  std::vector<double> stats = TwoStageResamples(values, resamples, random, RatioDifference);
   const auto [low, high] = PercentileBounds(stats, confidence);
   return {estimate, low, high};
 }

@@ -10,7 +10,9 @@
 //  - Two-stage (cluster) bootstrap for a ratio estimator over replicates
 //    nested in truths (Davison & Hinkley 1997, Bootstrap Methods and their
 //    Application, sec. 3.8, "Hierarchical data"): used by the study summary
-//    for every rate and mean (metrics/cell_summary.h says why).
+//    for every rate and mean (metrics/cell_summary.h says why), and paired
+//    for the difference of two learners on the same replicates
+//    (metrics/learner_comparison.h).
 #pragma once
 
 #include <cstdint>
@@ -63,5 +65,27 @@ struct ClusteredValue {
 // values agree) the interval has zero width, however few clusters there are.
 Interval ClusteredRatioInterval(const std::vector<ClusteredValue>& values, int resamples,
                                 base::RandomStream& random, double confidence = 0.95);
+
+// Two learners' shares of the same ratio on one replicate (the same data):
+// the learner's and the reference learner's numerator and denominator.
+struct PairedValue {
+  int cluster = 0;
+  double numerator = 0;
+  double denominator = 1;
+  double reference_numerator = 0;
+  double reference_denominator = 1;
+};
+
+// The paired difference sum(numerator) / sum(denominator) -
+// sum(reference_numerator) / sum(reference_denominator) with the two-stage
+// percentile bootstrap of ClusteredRatioInterval, each replicate drawn with
+// both shares (paired comparison; Efron & Tibshirani 1993, An Introduction to
+// the Bootstrap, ch. 13, for percentile intervals). Variation that the two
+// learners share, the draw of the data, cancels, so the interval of the
+// difference is usually much narrower than the two single intervals suggest.
+// Resamples in which either denominator sums to 0 are left out; the estimate
+// is NaN when either denominator sums to 0.
+Interval ClusteredRatioDifferenceInterval(const std::vector<PairedValue>& values, int resamples,
+                                          base::RandomStream& random, double confidence = 0.95);
 
 }  // namespace locind::metrics

@@ -5,6 +5,7 @@ locind_layer(locind_metrics
     metrics/cell_summary.cc
     metrics/error_attribution.cc
     metrics/intervals.cc
+    metrics/learner_comparison.cc
     metrics/pvalue_calibration.cc
     metrics/replicate_score.cc
     metrics/truth_class.cc
