@@ -155,7 +155,7 @@ int Run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     err << "locind run: " << written.message() << "\n";
     return kExitFailure;
   }
-  out << "results in " << dir << "/ (replicates.csv, edges.csv, summary.csv, null_tests.csv, calibration.csv, study.json, drawings)\n";
+  out << "results in " << dir << "/ (replicates.csv, edges.csv, summary.csv, comparisons.csv, null_tests.csv, calibration.csv, study.json, drawings)\n";
   if (o.part.parts > 1) {
     out << "this is part " << o.part.Text() << "; join the parts with locind merge (it writes the report)\n";
   } else {

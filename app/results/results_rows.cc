@@ -145,6 +145,16 @@ const std::string& SummaryHeader() {
   return header;
 }
 
+const std::string& ComparisonHeader() {
+  static const std::string header =
+      "cell,length,level,hidden_count,stationarity_target,learner,reference,paired,truths,"
+      "power_difference,power_difference_low,power_difference_high,"
+      "directed_power_difference,directed_power_difference_low,directed_power_difference_high,"
+      "false_edge_rate_difference,false_edge_rate_difference_low,false_edge_rate_difference_high,"
+      "class_recovery_difference,class_recovery_difference_low,class_recovery_difference_high";
+  return header;
+}
+
 std::string FormatReplicateRow(const ReplicateRow& r) {
   std::ostringstream o;
   o << r.cell << "," << r.replicate << "," << r.truth << "," << Num(r.length) << "," << Num(r.level)
@@ -247,6 +257,18 @@ std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
   metrics::ErrorAttribution a = s.attribution;
   for (int* v : AttributionFields(a)) o << "," << *v;
   o << "," << cell.trials;
+  return o.str();
+}
+
+std::string FormatComparisonRow(const Cell& cell, const std::string& learner,
+                                const std::string& reference, const metrics::LearnerComparison& c) {
+  std::ostringstream o;
+  o << cell.index << "," << Num(cell.length) << "," << Num(cell.level) << "," << cell.hidden_count
+    << "," << (cell.stationarity ? Num(*cell.stationarity) : "") << "," << learner << "," << reference
+    << "," << c.paired << "," << c.truths;
+  for (const metrics::Interval& i : {c.power, c.directed_power, c.false_edge_rate, c.class_recovery}) {
+    o << "," << Num(i.estimate) << "," << Num(i.low) << "," << Num(i.high);
+  }
   return o.str();
 }
 

@@ -5,6 +5,7 @@
 //   edges.csv       one audit row per replicate x learner x edge that was
 //                   reported or is solid in the truth
 //   summary.csv     one row per cell x learner (metrics::Summarize)
+//   comparisons.csv one row per cell x pair of learners (metrics::Compare)
 //   null_tests.csv  tests whose null hypothesis holds in the truth, for the
 //                   p-value calibration plots of the report
 //
@@ -22,6 +23,7 @@
 #include "app/study/study_grid.h"
 #include "metrics/cell_summary.h"
 #include "metrics/error_attribution.h"
+#include "metrics/learner_comparison.h"
 #include "metrics/replicate_score.h"
 
 namespace locind::app {
@@ -67,6 +69,7 @@ struct UnitResult {
 const std::string& ReplicateHeader();
 const std::string& EdgeHeader();
 const std::string& SummaryHeader();
+const std::string& ComparisonHeader();
 const std::string& NullTestHeader();
 
 std::string FormatReplicateRow(const ReplicateRow& row);
@@ -81,6 +84,10 @@ std::string Num(double value);
 // One summary.csv line for a cell and learner.
 std::string FormatSummaryRow(const Cell& cell, const std::string& learner,
                              const metrics::CellSummary& summary);
+
+// One comparisons.csv line: `learner` minus `reference` in a cell.
+std::string FormatComparisonRow(const Cell& cell, const std::string& learner,
+                                const std::string& reference, const metrics::LearnerComparison& c);
 
 // The records of a group of rows, for metrics::Summarize.
 metrics::ReplicateRecord RecordOf(const ReplicateRow& row);

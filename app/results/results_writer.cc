@@ -229,6 +229,49 @@ std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
   return out;
 }
 
+std::string ComparisonsCsv(const StudySpec& study, const std::vector<Cell>& cells,
+                           const std::map<Unit, UnitResult>& units) {
+  // rows[cell][learner][replicate]: pairs are matched by replicate number.
+  const size_t learners = study.learners.size();
+  std::vector<std::vector<std::map<int, const ReplicateRow*>>> rows(
+      cells.size(), std::vector<std::map<int, const ReplicateRow*>>(learners));
+  for (const auto& [unit, result] : units) {
+    for (const ReplicateRow& r : result.rows) {
+      for (size_t l = 0; l < learners; ++l) {
+        if (study.learners[l].label == r.learner) rows[unit.cell][l][r.replicate] = &r;
+      }
+    }
+  }
+  std::string out = ComparisonHeader() + "\n";
+  for (const Cell& c : cells) {
+    // Truths numbered by first appearance, as in SummarizeCell.
+    std::vector<std::string> truths;
+    auto record = [&truths](const ReplicateRow& r) {
+      metrics::ReplicateRecord rec = RecordOf(r);
+      auto it = std::find(truths.begin(), truths.end(), r.truth);
+      rec.truth = static_cast<int>(it - truths.begin());
+      if (it == truths.end()) truths.push_back(r.truth);
+      return rec;
+    };
+    for (size_t l = 1; l < learners; ++l) {
+      for (size_t ref = 0; ref < l; ++ref) {
+        std::vector<metrics::ReplicateRecord> mine, theirs;
+        for (const auto& [replicate, row] : rows[c.index][l]) {
+          auto other = rows[c.index][ref].find(replicate);
+          if (other == rows[c.index][ref].end()) continue;
+          mine.push_back(record(*row));
+          theirs.push_back(record(*other->second));
+        }
+        if (mine.empty()) continue;
+        base::RandomStream random(base::StreamKey{study.seed, c.key, 1024 * l + ref, kPurposeComparison});
+        out += FormatComparisonRow(c, study.learners[l].label, study.learners[ref].label,
+                                   metrics::Compare(mine, theirs, random)) + "\n";
+      }
+    }
+  }
+  return out;
+}
+
 // The seed and the stream keys are 64-bit integers: written as JSON strings,
 // since readers that hold JSON numbers as doubles (R's jsonlite, JavaScript,
 // pandas) round integers above 2^53.
@@ -237,7 +280,7 @@ std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, co
   o << "{\n  \"program\": \"locind\",\n  \"version\": \"" << kLocindVersion << "\",\n"
     << "  \"name\": " << JsonString(study.name) << ",\n  \"seed\": \"" << study.seed << "\",\n"
     << "  \"streams\": \"every random stream is keyed by (seed, cell key, replicate, purpose); "
-       "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap, 5 test draws; "
+       "purposes: 1 truth graph, 2 process parameters, 3 data, 4 summary bootstrap, 5 test draws, 6 external learners, 7 learner comparisons; "
        "data and test draws use the data key (the cell label without the level, so cells that differ "
        "only in level share data); truths use the key of 'truth hidden=<factor>' (or "
        "'truth hidden=fixed-observed') and the truth index as replicate\",\n"
@@ -287,6 +330,7 @@ Status WriteResults(const std::string& dir, const StudySpec& study, const std::s
       {dir + "/edges.csv", EdgesCsv(units)},
       {dir + "/null_tests.csv", NullTestsCsv(units)},
       {dir + "/summary.csv", SummaryCsv(study, cells, units)},
+      {dir + "/comparisons.csv", ComparisonsCsv(study, cells, units)},
       {dir + "/calibration.csv", CalibrationCsv(cells, units)}};
   for (const auto& [path, content] : files) {
     Status s = WriteFileAtomically(path, content);

@@ -1,6 +1,7 @@
 // The final files of a study folder, built from finished units.
 //
-//   replicates.csv, edges.csv, summary.csv, null_tests.csv, calibration.csv
+//   replicates.csv, edges.csv, summary.csv, comparisons.csv, null_tests.csv,
+//   calibration.csv
 //                     (columns: results/README.md)
 //   study.json        the resolved study: version, seed, truths and their
 //                     classes, process, cells with their stream keys, learners
@@ -43,6 +44,11 @@ std::string EdgesCsv(const std::map<Unit, UnitResult>& units);
 std::string NullTestsCsv(const std::map<Unit, UnitResult>& units);
 std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
                        const std::map<Unit, UnitResult>& units);
+// Every pair of learners in every cell, the later learner of the study
+// against the earlier (its reference), paired by replicate; bootstrap stream
+// keyed by (seed, cell key, 1024 * learner + reference, kPurposeComparison).
+std::string ComparisonsCsv(const StudySpec& study, const std::vector<Cell>& cells,
+                           const std::map<Unit, UnitResult>& units);
 std::string StudyJson(const StudySpec& study, const std::vector<Cell>& cells, const StudyTruths& truths);
 
 // Writes every file above into `dir`. `study_text` is the study file's text.

@@ -30,6 +30,7 @@ enum StreamPurpose : uint64_t {
   kPurposeSummary = 4,
   kPurposeTestDraws = 5,  // Monte Carlo draws inside a test (chi-bar weights)
   kPurposeExternal = 6,   // the seed handed to an external learner's program
+  kPurposeComparison = 7, // bootstrap of the paired learner comparisons
 };
 
 struct Cell {

@@ -104,7 +104,8 @@ inline std::string WithoutTimings(const fs::path& p) {
 // Same outputs apart from timing columns; returns the number of files compared.
 inline int CompareFolders(const fs::path& a, const fs::path& b) {
   int compared = 0;
-  for (const char* csv : {"replicates.csv", "edges.csv", "null_tests.csv", "summary.csv", "calibration.csv"}) {
+  for (const char* csv : {"replicates.csv", "edges.csv", "null_tests.csv", "summary.csv", "comparisons.csv",
+                          "calibration.csv"}) {
     REQUIRE(fs::exists(a / csv));
     REQUIRE(fs::exists(b / csv));
     CHECK_MESSAGE(WithoutTimings(a / csv) == WithoutTimings(b / csv), csv);

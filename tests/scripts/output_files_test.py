@@ -57,7 +57,8 @@ def main():
             f.write(STUDY)
         out = os.path.join(tmp, "results")
         run("run", study, "--out", out)
-        expected = {"replicates.csv", "edges.csv", "summary.csv", "null_tests.csv", "calibration.csv"}
+        expected = {"replicates.csv", "edges.csv", "summary.csv", "comparisons.csv", "null_tests.csv",
+                    "calibration.csv"}
         check(expected <= set(csv_files(out)), f"result files {csv_files(out)}")
         for name in csv_files(out):
             frame = pd.read_csv(os.path.join(out, name))  # the documented line

@@ -111,17 +111,17 @@ TEST_CASE("mpirun -np 2 (dispatch, static) and -np 3 --threads 2 give the files 
   REQUIRE(Mpirun(2, {study, "--out", s.Path("dispatch")}, s, &log) == kExitOk);
   CHECK(Count(log, "2 ranks x 1 thread, dispatch; 0 of 8 units already done") == 1);
   CHECK(Count(log, "results in " + s.Path("dispatch")) == 1);  // rank 0 alone reports
-  // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
-  CHECK(CompareFolders(s.dir / "one", s.dir / "dispatch") == 10);
+  // 6 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
+  CHECK(CompareFolders(s.dir / "one", s.dir / "dispatch") == 11);
   CHECK(CountLines(s.dir / "dispatch" / Journal::FileName()) == 1 + 8);
 
   REQUIRE(Mpirun(2, {study, "--out", s.Path("static"), "--mpi-assign", "static"}, s, &log) == kExitOk);
   CHECK(Count(log, "2 ranks x 1 thread, static") == 1);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "static") == 10);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "static") == 11);
 
   REQUIRE(Mpirun(3, {study, "--out", s.Path("three"), "--threads", "2"}, s, &log) == kExitOk);
   CHECK(Count(log, "3 ranks x 2 threads, dispatch") == 1);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "three") == 10);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "three") == 11);
 }
 
 TEST_CASE("external programs (data and oracle questions) under mpirun -np 2 give the rows of one process") {
@@ -148,7 +148,7 @@ TEST_CASE("external programs (data and oracle questions) under mpirun -np 2 give
   std::string log;
   REQUIRE(Mpirun(2, {study, "--out", s.Path("ranks")}, s, &log) == kExitOk);
   CHECK(Count(log, "2 ranks x 1 thread, dispatch; 0 of 8 units already done") == 1);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "ranks") == 10);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "ranks") == 11);
   int asks_rows = 0, fixed_rows = 0;
   for (const auto& r : ReadRows(s.dir / "ranks" / "replicates.csv")) {
     if (r.at("learner") == "asks") {
@@ -192,7 +192,7 @@ TEST_CASE("a rank killed with SIGKILL: the journal keeps what was finished, a re
   REQUIRE(Mpirun(2, {study, "--out", s.Path("killed")}, s, &log) == kExitOk);
   CHECK(Count(log, " of 20 units already done") == 1);
   CHECK(Count(log, "; 0 of 20 units already done") == 0);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") == 10);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") == 11);
   CHECK(CountLines(journal) == 1 + 20);
 }
 

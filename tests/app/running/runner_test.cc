@@ -37,8 +37,8 @@ TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2
   REQUIRE(Run({study, "--threads", "1", "--out", s.Path("one")}, &text) == kExitOk);
   CHECK(text.find("results in " + s.Path("one")) != std::string::npos);
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("two")}) == kExitOk);
-  // 4 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
-  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 10);
+  // 6 CSV files, study.json, truth-t1/t2.svg and class-t1/t2.svg.
+  CHECK(CompareFolders(s.dir / "one", s.dir / "two") == 11);
 
   REQUIRE(Run({study, "--part", "2/2", "--out", s.Path("p2")}) == kExitOk);
   REQUIRE(Run({study, "--part", "1/2", "--out", s.Path("p1"), "--threads", "2"}) == kExitOk);
@@ -47,7 +47,7 @@ TEST_CASE("--threads 1 and --threads 2 give the same files, and so do --part 1/2
   CHECK(CountLines(s.dir / "p1" / "replicates.csv") == 1 + 12);
   std::ostringstream out, err;
   REQUIRE(RunMergeCommand({s.Path("p2"), s.Path("p1"), "--out", s.Path("merged")}, out, err) == kExitOk);
-  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 10);
+  CHECK(CompareFolders(s.dir / "one", s.dir / "merged") >= 11);
   CHECK_FALSE(fs::exists(s.dir / "merged" / "part.txt"));
 
   {  // merge refuses an incomplete set of shares
@@ -105,13 +105,13 @@ TEST_CASE("killed with SIGKILL mid-run, then run again: the files of an uninterr
   std::string text;
   REQUIRE(Run({study, "--threads", "2", "--out", s.Path("killed")}, &text) == kExitOk);
   CHECK(text.find(std::to_string(committed) + " of 20 units already done") != std::string::npos);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 10);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 11);
   CHECK(CountLines(s.dir / "killed" / Journal::FileName()) == 21);
 
   {  // running the finished study again only rewrites the same files
     REQUIRE(Run({study, "--out", s.Path("killed")}, &text) == kExitOk);
     CHECK(text.find("20 of 20 units already done") != std::string::npos);
-    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 10);
+    CHECK(CompareFolders(s.dir / "whole", s.dir / "killed") >= 11);
   }
 }
 
@@ -132,7 +132,7 @@ TEST_CASE("--part shares merged after one was killed and resumed: the files of o
   std::ostringstream out, err;
   REQUIRE(RunMergeCommand({s.Path("p1"), s.Path("p2"), "--out", s.Path("merged")}, out, err) ==
           kExitOk);
-  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 10);
+  CHECK(CompareFolders(s.dir / "whole", s.dir / "merged") >= 11);
 }
 
 TEST_CASE("a second run into a folder in use is refused, and so is another study's folder") {
@@ -245,6 +245,45 @@ TEST_CASE("edges.csv decision records and replicates.csv attribution add up") {
     }
     if (e.at("witness_status").rfind("not estimable", 0) == 0) {
       CHECK(e.at("witness_p_value").empty());
+    }
+  }
+}
+
+double Dbl(const std::map<std::string, std::string>& row, const std::string& column) {
+  return std::stod(row.at(column));
+}
+
+// comparisons.csv: one row per cell and pair of learners (later minus
+// earlier in the study); with no failed replicate its estimates are the
+// differences of summary.csv's pooled rates (the same ratios, checked here
+// against the other file), and every interval holds its estimate.
+TEST_CASE("comparisons.csv pairs every two learners and matches summary.csv") {
+  Scratch s("locind_runner_test_comparisons");
+  const std::string study = s.Write("tiny.yaml", kTinyStudy);
+  REQUIRE(Run({study, "--out", s.Path("out")}) == kExitOk);
+  std::map<std::pair<std::string, std::string>, std::map<std::string, std::string>> summary;
+  for (const auto& r : ReadRows(s.dir / "out" / "summary.csv")) {
+    REQUIRE(r.at("failed") == "0");
+    summary[{r.at("cell"), r.at("learner")}] = r;
+  }
+  const auto rows = ReadRows(s.dir / "out" / "comparisons.csv");
+  REQUIRE(rows.size() == 2 * 3);  // 2 cells x 3 pairs of 3 learners
+  CHECK(rows[0].at("learner") == "screen/hawkes-lr");
+  CHECK(rows[0].at("reference") == "pairwise/hawkes-lr");
+  CHECK(rows[2].at("learner") == "maximal-search/oracle");
+  CHECK(rows[2].at("reference") == "screen/hawkes-lr");
+  for (const auto& c : rows) {
+    CHECK(c.at("paired") == "4");
+    const auto& mine = summary.at({c.at("cell"), c.at("learner")});
+    const auto& ref = summary.at({c.at("cell"), c.at("reference")});
+    for (const std::string m : {"power", "false_edge_rate", "directed_power"}) {
+      if (mine.at(m).empty() || ref.at(m).empty()) {
+        CHECK(c.at(m + "_difference").empty());
+        continue;
+      }
+      CHECK(Dbl(c, m + "_difference") == doctest::Approx(Dbl(mine, m) - Dbl(ref, m)));
+      CHECK(Dbl(c, m + "_difference_low") <= Dbl(c, m + "_difference") + 1e-12);
+      CHECK(Dbl(c, m + "_difference_high") >= Dbl(c, m + "_difference") - 1e-12);
     }
   }
 }
