@@ -624,6 +624,7 @@ ReportPage BuildReportPage(const StudySpec& study, const std::vector<Cell>& cell
   page.study = StudyRows(study);
   page.caution = ReportCaution() + TestsAssumed(study);
   page.summary = data.summary;
+  page.comparisons = data.comparisons;
   ReportSection rates{"rates", "Power and false edges", "Scored against the maximal graph N of each truth's "
                       "class: a learner can at best report N." + TruthsNote(data), {}};
   ReportSection cost{"cost", "Tests made and time", "", {}};

@@ -123,6 +123,31 @@ void WriteGroupNumbers(const ReportPage& page, std::ostream& out) {
   out << "</table>\n";
 }
 
+void WriteComparisons(const ReportPage& page, std::ostream& out) {
+  if (page.comparisons.empty()) return;
+  out << "<p>Paired differences, as in comparisons.csv: each learner minus an earlier learner of the "
+         "study on the same replicates (same data), with 95% cluster-bootstrap intervals that keep the "
+         "pairing. To choose between two methods, read these rather than the overlap of the intervals "
+         "above: an interval of a difference that excludes 0 is a difference beyond the sampling error "
+         "of the replicates.</p>\n<table id=\"comparison-table\">\n<tr><th>cell</th><th>length</th>"
+         "<th>learner</th><th>minus</th><th>paired</th><th colspan=3>power</th>"
+         "<th colspan=3>directed power</th><th colspan=3>false-edge rate</th>"
+         "<th colspan=3>class recovered</th></tr>\n";
+  for (const ComparisonLine& c : page.comparisons) {
+    out << "<tr data-cell=\"" << c.cell << "\" data-learner=\"" << Escape(c.learner)
+        << "\" data-reference=\"" << Escape(c.reference) << "\"><td class=\"n\">" << c.cell << "</td>";
+    WriteCell(out, "length", c.length);
+    out << "<td>" << Escape(c.learner) << "</td><td>" << Escape(c.reference) << "</td><td class=\"n\">"
+        << c.paired << "</td>";
+    WriteInterval(out, "power_difference", c.power);
+    WriteInterval(out, "directed_power_difference", c.directed_power);
+    WriteInterval(out, "false_edge_rate_difference", c.false_edge_rate);
+    WriteInterval(out, "class_recovery_difference", c.class_recovery);
+    out << "</tr>\n";
+  }
+  out << "</table>\n";
+}
+
 void WriteNumbers(const ReportPage& page, std::ostream& out) {
   out << "<section id=\"numbers\"><h2>The numbers</h2>\n<p>As in summary.csv: pooled rates and "
          "means with 95% cluster-bootstrap intervals (truths, then replicates within truths).</p>\n"
@@ -146,6 +171,7 @@ void WriteNumbers(const ReportPage& page, std::ostream& out) {
   }
   out << "</table>\n";
   WriteGroupNumbers(page, out);
+  WriteComparisons(page, out);
   out << "</section>\n";
 }
 

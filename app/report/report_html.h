@@ -49,6 +49,7 @@ struct ReportPage {
   std::vector<std::pair<std::string, std::string>> study;  // the study in one table
   std::vector<ReportSection> sections;
   std::vector<SummaryLine> summary;  // the numbers table, as read from summary.csv
+  std::vector<ComparisonLine> comparisons;  // paired differences, from comparisons.csv
   std::string caution;               // plain text
   std::vector<std::string> warnings = {};  // plain text lines shown first, above the caution
 };

@@ -172,6 +172,25 @@ void ReadSummary(const Table& t, ReportData& d) {
   }
 }
 
+void ReadComparisons(const Table& t, ReportData& d) {
+  for (size_t i = 0; i < t.size(); ++i) {
+    ComparisonLine c;
+    c.cell = t.Whole(i, "cell");
+    c.length = t.Number(i, "length");
+    c.level = t.Number(i, "level");
+    c.hidden_count = t.Whole(i, "hidden_count");
+    c.learner = t.Text(i, "learner");
+    c.reference = t.Text(i, "reference");
+    c.paired = t.Whole(i, "paired");
+    c.truths = t.Whole(i, "truths");
+    c.power = t.Interval(i, "power_difference");
+    c.directed_power = t.Interval(i, "directed_power_difference");
+    c.false_edge_rate = t.Interval(i, "false_edge_rate_difference");
+    c.class_recovery = t.Interval(i, "class_recovery_difference");
+    d.comparisons.push_back(std::move(c));
+  }
+}
+
 void ReadEdges(const Table& t, ReportData& d) {
   for (size_t i = 0; i < t.size(); ++i) {
     EdgeLine e;
@@ -239,6 +258,7 @@ Result<ReportData> ReadReportData(const std::string& dir) {
   ReportData d;
   try {
     ReadSummary(*Open(dir, "summary.csv", true), d);
+    if (std::optional<Table> c = Open(dir, "comparisons.csv", false)) ReadComparisons(*c, d);
     ReadEdges(*Open(dir, "edges.csv", true), d);
     ReadNullTests(*Open(dir, "null_tests.csv", true), d);
     if (std::optional<Table> plan = Open(dir, "plan.csv", false)) ReadPlan(*plan, d);

@@ -1,6 +1,6 @@
 // The tables a study report is drawn from, read back from a result folder:
-// summary.csv, edges.csv, null_tests.csv and, when `locind plan --out` wrote
-// it, plan.csv (columns: results/README.md). Columns are found by name, so
+// summary.csv, edges.csv, null_tests.csv, comparisons.csv (a folder from
+// before it has none) and, when `locind plan --out` wrote it, plan.csv (columns: results/README.md). Columns are found by name, so
 // the report reads exactly what the files say.
 #pragma once
 
@@ -47,6 +47,18 @@ struct SummaryLine {
   int false_own_test = 0, false_propagation = 0, false_not_estimable = 0, false_reach = 0;
 };
 
+// One row of comparisons.csv: learner minus reference on paired replicates.
+struct ComparisonLine {
+  int cell = 0;
+  double length = 0;
+  double level = 0;
+  int hidden_count = 0;
+  std::string learner, reference;
+  int paired = 0;
+  int truths = 0;
+  metrics::Interval power, directed_power, false_edge_rate, class_recovery;
+};
+
 struct EdgeLine {
   int cell = 0;
   int replicate = 0;
@@ -91,13 +103,14 @@ struct PlanLine {
 
 struct ReportData {
   std::vector<SummaryLine> summary;
+  std::vector<ComparisonLine> comparisons;  // empty for a folder from before comparisons.csv
   std::vector<EdgeLine> edges;
   std::vector<NullTestLine> null_tests;
   std::vector<PlanLine> plan;  // empty without plan.csv
 };
 
 // Reads the files of `dir`. Fails naming FILE:LINE:COLUMN: FIELD when a file
-// is missing (plan.csv may be) or a value does not parse.
+// is missing (plan.csv and comparisons.csv may be) or a value does not parse.
 Result<ReportData> ReadReportData(const std::string& dir);
 
 }  // namespace locind::app

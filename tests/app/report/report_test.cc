@@ -190,6 +190,39 @@ TEST_CASE("the edge-group table shows summary.csv's ceiling and mark agreement")
   CHECK(compared == 6 * 4);
 }
 
+TEST_CASE("the paired-difference table equals comparisons.csv") {
+  const std::string html = ReadAll(StudyFolder() / "report.html");
+  const size_t table = html.find("id=\"comparison-table\"");
+  REQUIRE(table != std::string::npos);
+  int compared = 0;
+  const auto rows = CsvRows(StudyFolder() / "comparisons.csv");
+  for (const auto& value : rows) {
+    const std::string key = "data-cell=\"" + value.at("cell") + "\" data-learner=\"" + value.at("learner") +
+                            "\" data-reference=\"" + value.at("reference") + "\"";
+    const size_t at = html.find(key, table);
+    REQUIRE_MESSAGE(at != std::string::npos, key);
+    const std::string row = html.substr(at, html.find("</tr>", at) - at);
+    for (const std::string measure : {"power", "directed_power", "false_edge_rate", "class_recovery"}) {
+      for (const std::string end : {"", "_low", "_high"}) {
+        const std::string column = measure + "_difference" + end;
+        const std::string mark = "data-col=\"" + column + "\">";
+        const size_t start = row.find(mark);
+        REQUIRE_MESSAGE(start != std::string::npos, column);
+        const size_t from = start + mark.size();
+        const std::string shown = row.substr(from, row.find('<', from) - from);
+        if (value.at(column).empty()) {
+          CHECK_MESSAGE(shown == "-", column);
+        } else {
+          CHECK_MESSAGE(std::abs(std::stod(shown) - std::stod(value.at(column))) <= 5e-4 + 1e-12, column);
+        }
+        ++compared;
+      }
+    }
+  }
+  CHECK(rows.size() == 2 * 3);  // 2 lengths x 3 pairs of 3 learners
+  CHECK(compared == 6 * 12);
+}
+
 TEST_CASE("every figure is a non-empty SVG file and sits in the page") {
   const std::string html = ReadAll(StudyFolder() / "report.html");
   int figures = 0;
