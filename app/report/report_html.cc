@@ -130,14 +130,15 @@ void WriteComparisons(const ReportPage& page, std::ostream& out) {
          "pairing. To choose between two methods, read these rather than the overlap of the intervals "
          "above: an interval of a difference that excludes 0 is a difference beyond the sampling error "
          "of the replicates.</p>\n<table id=\"comparison-table\">\n<tr><th>cell</th><th>length</th>"
-         "<th>learner</th><th>minus</th><th>paired</th><th colspan=3>power</th>"
+         "<th>level</th><th>hidden</th><th>learner</th><th>minus</th><th>paired</th><th colspan=3>power</th>"
          "<th colspan=3>directed power</th><th colspan=3>false-edge rate</th>"
          "<th colspan=3>class recovered</th></tr>\n";
   for (const ComparisonLine& c : page.comparisons) {
     out << "<tr data-cell=\"" << c.cell << "\" data-learner=\"" << Escape(c.learner)
         << "\" data-reference=\"" << Escape(c.reference) << "\"><td class=\"n\">" << c.cell << "</td>";
     WriteCell(out, "length", c.length);
-    out << "<td>" << Escape(c.learner) << "</td><td>" << Escape(c.reference) << "</td><td class=\"n\">"
+    WriteCell(out, "level", c.level);
+    out << "<td class=\"n\">" << c.hidden_count << "</td><td>" << Escape(c.learner) << "</td><td>" << Escape(c.reference) << "</td><td class=\"n\">"
         << c.paired << "</td>";
     WriteInterval(out, "power_difference", c.power);
     WriteInterval(out, "directed_power_difference", c.directed_power);
