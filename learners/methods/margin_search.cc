@@ -520,9 +520,7 @@ void FillDecisions(State& s, LearnResult& result) {
     d.kept = s.upper.Has(e);
     if (d.kept) {
       d.phase = e.is_loop() ? "separation" : "final";
-      if (d.rule == "own evidence") {
-        ++s.kept_by_evidence;
-      } else {
+      if (d.rule != "own evidence") {
         d.rule = e.is_loop() ? "inseparable" : "conditions hold";
         d.witnesses.clear();
       }
@@ -533,6 +531,15 @@ void FillDecisions(State& s, LearnResult& result) {
         for (Mask given : s.own_sets[c * s.n + t]) d.witnesses.push_back(Witness(s, c, t, given));
       }
       for (const TestRecord& w : d.witnesses) d.undecided |= w.status == TestStatus::kNotEstimable;
+      if (d.undecided) {
+        // As FinishDecisions (test_runner.h): rule "not estimable", the tests
+        // of its own pair that could not be computed as the witnesses.
+        d.rule = "not estimable";
+        std::erase_if(d.witnesses,
+                      [](const TestRecord& w) { return w.status != TestStatus::kNotEstimable; });
+      } else if (d.rule == "own evidence") {
+        ++s.kept_by_evidence;
+      }
       if (auto it = dashed.find(KeyOf(e)); it != dashed.end()) d.mark = it->second ? "dashed" : "solid";
     }
     result.decisions.push_back(std::move(d));
