@@ -271,12 +271,19 @@ TEST_CASE("maximal-search, margin-search and exhaustive: not-estimable tests lea
       CHECK(r.result.decisions.size() == CandidateEdges(r.result.graph.size()));
       if (r.result.method != "margin-search") {  // margin-search: the should_fail case below
         CHECK_MESSAGE(r.attribution.missed() == 0, LostEdges(r, i));
-        CHECK(r.attribution.false_edges() == r.attribution.false_not_estimable);
       }
+      CHECK(r.attribution.false_edges() == r.attribution.false_not_estimable);
       CHECK(r.attribution.false_edges() == ScoreGraph(r.truth, r.result.graph).total.false_edges);
       CHECK(ContradictingDecisions(r.result) == 0);
       false_edges += r.attribution.false_edges();
       for (const learners::EdgeDecision& d : r.result.decisions) {
+        // A removal's premises (the witnesses after its separation) are
+        // connections: never a test that could not be computed.
+        for (size_t k = 1; !d.kept && k < d.witnesses.size(); ++k) {
+          CHECK_MESSAGE(d.witnesses[k].status == TestStatus::kOk,
+                        r.result.method << " truth " << i << " " << graph::EdgeText(r.result.graph, d.edge)
+                                        << " rule " << d.rule);
+        }
         if (!d.undecided) continue;
         ++undecided;
         CHECK_MESSAGE(d.rule == "not estimable", r.result.method << " rule " << d.rule);
@@ -289,18 +296,18 @@ TEST_CASE("maximal-search, margin-search and exhaustive: not-estimable tests lea
   CHECK(undecided > 0);
 }
 
-// Known gap (review of issue 15): margin-search puts a pair never separated
-// only because a test of it could not be computed into inseparable_from
-// (SeparationPhase) and such a loop into its accepted graph (PruningPhase),
-// so the not-estimable answer serves as a premise. Regression values: truths
-// 7, 35 (two edges) and 89 lose a solid edge by D2 in the final phase.
-// Marked should_fail: when the policy holds it fails, and the mark goes.
+// Known gap (review of issue 15): margin-search's PruningPhase puts every
+// loop left after phase (i) into its accepted graph, also one left only
+// because a test of it could not be computed (maximal-search leaves those
+// out), so that not-estimable answer serves as the premise conn(a, a | C) of
+// (D2). Regression values: truths 7, 35 (two edges) and 89 lose a solid edge
+// by D2 in the final phase. Marked should_fail: when the policy holds it
+// fails, and the mark goes.
 TEST_CASE("margin-search: not-estimable tests never lose an edge" * doctest::should_fail()) {
   for (int i = 0; i < 200; ++i) {
     learners::MarginSearch margin;
     const Run r = RunMethod(margin, testing::SuiteTruth(16, i), FirstProcessNotEstimable());
     CHECK_MESSAGE(r.attribution.missed() == 0, LostEdges(r, i));
-    CHECK(r.attribution.false_edges() == r.attribution.false_not_estimable);
   }
 }
 
