@@ -68,8 +68,8 @@ struct TestRecord {
 
 // Why a method kept or removed one candidate edge.
 //
-// phase: where the decision was made. maximal-search: "separation",
-//   "pruning", "final" (and "marks" for the solid/dashed mark of a kept
+// phase: where the decision was made. maximal-search and margin-search:
+//   "separation", "pruning", "final" (and "marks" for the solid/dashed mark of a kept
 //   edge, which is recorded in `mark`, not as a separate record); pairwise:
 //   "test"; screen: "screen"; exhaustive: "criterion"; penalized-fit: "fit".
 // rule: "separated" (a separation of the pair: D1 fails), "implied
@@ -78,7 +78,8 @@ struct TestRecord {
 //   docs/theory.md F6 that failed), "one direction removed" (screen's
 //   bidirected edges), "zero coefficient" (penalized-fit), "never considered"
 //   (an edge kind outside the method: pairwise, penalized-fit and <->); for kept edges
-//   "inseparable", "conditions hold", "not estimable" (undecided),
+//   "inseparable", "conditions hold", "own evidence" (margin-search: a
+//   separation that did not refute the edge), "not estimable" (undecided),
 //   "both directions kept", "nonzero coefficient".
 // witnesses: the answers that caused the decision, the deciding separation
 //   first when the edge was removed (then the connections the rule needed,

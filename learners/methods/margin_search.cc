@@ -241,7 +241,11 @@ void SeparationPhase(State& s) {
     joined = std::move(still);
     if (!any) break;
   }
-  for (auto [a, b] : joined) s.inseparable_from[a] |= Bit(b);
+  // A pair left only because a test of it could not be computed (own NaN)
+  // is not known to be inseparable: it is no premise (learner.h policy).
+  for (auto [a, b] : joined) {
+    if (!std::isnan(s.own[a * s.n + b])) s.inseparable_from[a] |= Bit(b);
+  }
 }
 
 // ---- Phase (ii): pruning with remembered separations, no new tests.
@@ -402,6 +406,7 @@ class EdgeAnswers {
       s_.runner.Dependent(c, d, given);
       const TestResult& r = *s_.tap.Find(c, d, given);
       if (r.status == TestStatus::kOk && r.p_value <= s_.level) known |= Bit(d);
+      NoteUnknown(r, c, d, given);
     }
     return known;
   }
@@ -414,6 +419,7 @@ class EdgeAnswers {
       s_.runner.Dependent(c, d, given);
       const TestResult& r = *s_.tap.Find(c, d, given);
       const double q = Evidence(r);
+      NoteUnknown(r, c, d, given);
       if (Refutes(q, ExactAnswer(r), p_e_, s_.level)) {
         open &= ~Bit(d);
         refuting_ = {c, d, given, q, false, ExactAnswer(r)};
@@ -425,12 +431,21 @@ class EdgeAnswers {
   }
 
   static constexpr Mask kNone = ~Mask{0};
+  // Answers the conditions needed that could not be computed (at most 5):
+  // an edge kept with any is undecided (learner.h policy, as maximal-search).
+  std::vector<TestRecord> unknown_used_;
   Separation refuting_{0, 0, kNone, 0, false, false};
   Separation set_aside_{0, 0, kNone, 0, false, false};
 
  private:
   Mask Implied(int c, Mask given, Mask possible) const {
     return (graph::ConnectedFrom(s_.lower, c, given) | s_.inseparable_from[c]) & possible;
+  }
+
+  void NoteUnknown(const TestResult& r, int c, int d, Mask given) {
+    if (r.status == TestStatus::kNotEstimable && unknown_used_.size() < 5) {
+      unknown_used_.push_back(Witness(s_, c, d, given));
+    }
   }
 
   State& s_;
@@ -500,6 +515,9 @@ void FinalPhase(State& s) {
         d.witnesses.push_back(Witness(s, z.source, z.target, z.given));
       }
       removed.push_back(e);
+    } else if (!ans.unknown_used_.empty()) {
+      d.undecided = true;
+      d.witnesses = ans.unknown_used_;
     } else if (d.rule.empty() && ans.set_aside_.given != EdgeAnswers::kNone) {
       const Separation& z = ans.set_aside_;
       d.rule = std::string("own evidence");  // not = "...": a g++ 12 -Wrestrict false positive
@@ -520,9 +538,7 @@ void FillDecisions(State& s, LearnResult& result) {
     d.kept = s.upper.Has(e);
     if (d.kept) {
       d.phase = e.is_loop() ? "separation" : "final";
-      if (d.rule == "own evidence") {
-        ++s.kept_by_evidence;
-      } else {
+      if (!d.undecided && d.rule != "own evidence") {
         d.rule = e.is_loop() ? "inseparable" : "conditions hold";
         d.witnesses.clear();
       }
@@ -533,6 +549,15 @@ void FillDecisions(State& s, LearnResult& result) {
         for (Mask given : s.own_sets[c * s.n + t]) d.witnesses.push_back(Witness(s, c, t, given));
       }
       for (const TestRecord& w : d.witnesses) d.undecided |= w.status == TestStatus::kNotEstimable;
+      if (d.undecided) {
+        // As FinishDecisions (test_runner.h): rule "not estimable", the tests
+        // of its own pair that could not be computed as the witnesses.
+        d.rule = "not estimable";
+        std::erase_if(d.witnesses,
+                      [](const TestRecord& w) { return w.status != TestStatus::kNotEstimable; });
+      } else if (d.rule == "own evidence") {
+        ++s.kept_by_evidence;
+      }
       if (auto it = dashed.find(KeyOf(e)); it != dashed.end()) d.mark = it->second ? "dashed" : "solid";
     }
     result.decisions.push_back(std::move(d));

@@ -9,6 +9,7 @@
 
 #include <functional>
 #include <optional>
+#include <sstream>
 
 #include "graph/latent_projection.h"
 #include "learners/independence/oracle_test.h"
@@ -233,32 +234,81 @@ TEST_CASE("maximal-search: one wrong pair explains every lost edge, and causes a
 // The same truths with every test of target x0 and a conditioning set of one
 // process not estimable: under the policy no such answer removes anything,
 // and every other answer is right, so no solid edge is lost and every false
-// edge is put down to a test that could not be computed.
-TEST_CASE("maximal-search and exhaustive: not-estimable tests never lose an edge") {
+// edge is put down to a test that could not be computed. Every undecided
+// record has rule "not estimable" and a test that could not be computed as
+// its deciding witness (learners/methods/learner.h, EdgeDecision).
+auto FirstProcessNotEstimable() {
+  return [](const TestQuery& q) -> std::optional<TestResult> {
+    if (q.target == 0 && q.given.size() == 1) return NotEstimable();
+    return std::nullopt;
+  };
+}
+
+// The missed solid edges of `r`, one line each: method, truth, edge, phase, rule.
+std::string LostEdges(const Run& r, int truth) {
+  std::ostringstream o;
+  for (const AttributedEdge& a : r.attribution.edges) {
+    if (!a.missed) continue;
+    const learners::EdgeDecision* d = FindDecision(r.result, a.edge);
+    o << r.result.method << " truth " << truth << " lost " << graph::EdgeText(r.result.graph, a.edge)
+      << ": " << (d ? d->phase + " " + d->rule : std::string("no record")) << "\n";
+  }
+  return o.str();
+}
+
+TEST_CASE("maximal-search, margin-search and exhaustive: not-estimable tests leave undecided records") {
   int undecided = 0;
   int false_edges = 0;
   for (int i = 0; i < 200; ++i) {
     const graph::TruthGraph truth = testing::SuiteTruth(16, i);
-    auto script = [](const TestQuery& q) -> std::optional<TestResult> {
-      if (q.target == 0 && q.given.size() == 1) return NotEstimable();
-      return std::nullopt;
-    };
     learners::MaximalSearch search;
     learners::ExhaustiveLearner exhaustive;
+    learners::MarginSearch margin;
     for (learners::Learner* method : {static_cast<learners::Learner*>(&search),
-                                      static_cast<learners::Learner*>(&exhaustive)}) {
-      const Run r = RunMethod(*method, truth, script);
+                                      static_cast<learners::Learner*>(&exhaustive),
+                                      static_cast<learners::Learner*>(&margin)}) {
+      const Run r = RunMethod(*method, truth, FirstProcessNotEstimable());
       CHECK(r.result.decisions.size() == CandidateEdges(r.result.graph.size()));
-      CHECK(r.attribution.missed() == 0);
-      CHECK(r.attribution.false_edges() == ScoreGraph(r.truth, r.result.graph).total.false_edges);
+      if (r.result.method != "margin-search") {  // margin-search: the should_fail case below
+        CHECK_MESSAGE(r.attribution.missed() == 0, LostEdges(r, i));
+      }
       CHECK(r.attribution.false_edges() == r.attribution.false_not_estimable);
+      CHECK(r.attribution.false_edges() == ScoreGraph(r.truth, r.result.graph).total.false_edges);
       CHECK(ContradictingDecisions(r.result) == 0);
       false_edges += r.attribution.false_edges();
-      for (const learners::EdgeDecision& d : r.result.decisions) undecided += d.undecided;
+      for (const learners::EdgeDecision& d : r.result.decisions) {
+        // A removal's premises (the witnesses after its separation) are
+        // connections: never a test that could not be computed.
+        for (size_t k = 1; !d.kept && k < d.witnesses.size(); ++k) {
+          CHECK_MESSAGE(d.witnesses[k].status == TestStatus::kOk,
+                        r.result.method << " truth " << i << " " << graph::EdgeText(r.result.graph, d.edge)
+                                        << " rule " << d.rule);
+        }
+        if (!d.undecided) continue;
+        ++undecided;
+        CHECK_MESSAGE(d.rule == "not estimable", r.result.method << " rule " << d.rule);
+        REQUIRE_FALSE(d.witnesses.empty());
+        CHECK(d.witnesses[0].status == TestStatus::kNotEstimable);
+      }
     }
   }
   MESSAGE("undecided decisions " << undecided << ", false edges " << false_edges);
   CHECK(undecided > 0);
+}
+
+// Known gap (review of issue 15): margin-search's PruningPhase puts every
+// loop left after phase (i) into its accepted graph, also one left only
+// because a test of it could not be computed (maximal-search leaves those
+// out), so that not-estimable answer serves as the premise conn(a, a | C) of
+// (D2). Regression values: truths 7, 35 (two edges) and 89 lose a solid edge
+// by D2 in the final phase. Marked should_fail: when the policy holds it
+// fails, and the mark goes.
+TEST_CASE("margin-search: not-estimable tests never lose an edge" * doctest::should_fail()) {
+  for (int i = 0; i < 200; ++i) {
+    learners::MarginSearch margin;
+    const Run r = RunMethod(margin, testing::SuiteTruth(16, i), FirstProcessNotEstimable());
+    CHECK_MESSAGE(r.attribution.missed() == 0, LostEdges(r, i));
+  }
 }
 
 // The pumping station of configs/demo.yaml with every answer right but

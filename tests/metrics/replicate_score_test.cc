@@ -240,8 +240,24 @@ TEST_CASE("cell summaries pool counts and skip failed replicates") {
   records[1].score = ScoreGraph(tc, graph::Dmg(tc.projected.names()));
   records[1].tests = 20;
   records[2].ok = false;
+  // Not-estimable and cause counts are sums over the replicates that ran
+  // (summary.csv, results/README.md); the failed one's counts are left out.
+  records[0].not_estimable = 2;
+  records[0].attribution.missed_propagation = 1;
+  records[0].attribution.tests.false_separation = 3;
+  records[1].not_estimable = 1;
+  records[1].attribution.missed_own_test = 2;
+  records[1].attribution.false_not_estimable = 1;
+  records[2].not_estimable = 50;
+  records[2].attribution.missed_reach = 50;
   base::RandomStream random(9);
   const CellSummary s = Summarize(records, LearnerReach{}, random, 200);
+  CHECK(s.not_estimable == 3);
+  CHECK(s.attribution.missed_own_test == 2);
+  CHECK(s.attribution.missed_propagation == 1);
+  CHECK(s.attribution.missed_reach == 0);
+  CHECK(s.attribution.false_not_estimable == 1);
+  CHECK(s.attribution.tests.false_separation == 3);
   CHECK(s.replicates == 3);
   CHECK(s.failed == 1);
   CHECK(s.power.estimate == doctest::Approx(0.5));
