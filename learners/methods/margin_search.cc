@@ -322,8 +322,10 @@ bool RefutesByReverse(const State& s, const Separation& z, const Edge& e) {
 }
 
 void PruningPhase(State& s) {
+  // A loop left only because a test of it could not be computed is not
+  // accepted: it would serve as a premise conn(a, a | C) (learner.h policy).
   for (int a = 0; a < s.n; ++a) {
-    if (s.upper.HasDirected(a, a)) s.lower.Add({a, a, EdgeKind::kDirected});
+    if (s.upper.HasDirected(a, a) && !std::isnan(s.own[a * s.n + a])) s.lower.Add({a, a, EdgeKind::kDirected});
   }
   std::vector<Edge> removed;
   for (const Edge& e : graph::ListEdges(s.upper)) {
