@@ -248,6 +248,17 @@ int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream&
   PrintResult(*result, o.json, out);
   if (const std::string warning = NotEstimableWarning(result->log); !warning.empty()) {
     err << "locind learn: warning: " << warning << "\n";
+  } else if (result->log.empty()) {
+    // A method without tests (penalized-fit): fits that could not be made.
+    std::vector<learners::TestRecord> fits;
+    for (const learners::EdgeDecision& d : result->decisions) {
+      if (d.undecided && !d.witnesses.empty()) fits.push_back(d.witnesses.front());
+    }
+    if (!fits.empty()) {
+      const std::string reasons = NotEstimableWarning(fits);  // "... undecided): reason (count), ..."
+      err << "locind learn: warning: " << fits.size() << " edges kept as undecided, their fits not estimable: "
+          << reasons.substr(reasons.find("): ") + 3) << "\n";
+    }
   }
   return kExitOk;
 }

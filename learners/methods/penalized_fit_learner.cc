@@ -163,12 +163,25 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
   result.test_kind = "none";
   std::vector<std::vector<int>> parents;
   std::vector<std::string> names;
+  // Targets whose fit cannot be made, with the reason: the policy of
+  // learner.h, as for a test that could not be computed: every edge into
+  // such a target is kept and marked undecided.
+  std::vector<std::string> unfit;
   if (input.events != nullptr) {
     Result<HawkesFeatures> f =
         HawkesFeatures::Create(*input.events, DefaultHawkesRates(*input.events));
     if (!f.ok()) return f.status();
     names = input.events->names;
+    unfit.resize(names.size());
     for (int b = 0; b < input.events->processes(); ++b) {
+      const size_t events = input.events->times[b].size();
+      if (events < 2) {
+        unfit[b] = names[b] + " has " + std::to_string(events) +
+                   (events == 1 ? " event" : " events") + "; its intensity fit needs at least 2";
+        parents.emplace_back();
+        for (int j = 0; j < input.events->processes(); ++j) parents.back().push_back(j);
+        continue;
+      }
       Result<std::vector<int>> found = HawkesParents(f.value(), b, scale_);
       if (!found.ok()) return found.status();
       parents.push_back(*found);
@@ -187,10 +200,29 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
   for (size_t b = 0; b < parents.size(); ++b) {
     for (int j : parents[b]) result.graph.AddDirected(j, static_cast<int>(b));
   }
-  // No tests: every directed pair is decided by its fitted coefficients.
+  // No tests: every directed pair is decided by its fitted coefficients, or
+  // undecided when its target's fit could not be made (the witness is that
+  // fit, as a not-estimable record of b from a given the others).
   const int n = static_cast<int>(parents.size());
+  int undecided_targets = 0;
+  for (int b = 0; b < n; ++b) undecided_targets += !unfit.empty() && !unfit[b].empty();
   for (int a = 0; a < n; ++a) {
     for (int b = 0; b < n; ++b) {
+      if (!unfit.empty() && !unfit[b].empty()) {
+        TestRecord w;
+        w.target = b;
+        w.sources = {a};
+        for (int c = 0; c < n; ++c) {
+          if (c != a) w.given.push_back(c);
+        }
+        w.statistic = w.df = w.p_value = std::numeric_limits<double>::quiet_NaN();
+        w.status = TestStatus::kNotEstimable;
+        w.reason = unfit[b];
+        EdgeDecision d = MakeDecision({a, b, graph::EdgeKind::kDirected}, true, "fit", "not estimable", {w});
+        d.undecided = true;
+        result.decisions.push_back(d);
+        continue;
+      }
       const bool kept = result.graph.HasDirected(a, b);
       result.decisions.push_back(MakeDecision({a, b, graph::EdgeKind::kDirected}, kept, "fit",
                                               kept ? "nonzero coefficient" : "zero coefficient"));
@@ -204,6 +236,13 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
   }
   std::ostringstream note;
   note << "penalty scale " << scale_;
+  if (undecided_targets > 0) {
+    note << "; warning: " << undecided_targets << " of " << n
+         << " fits not estimable, every edge into them kept as undecided:";
+    for (const std::string& why : unfit) {
+      if (!why.empty()) note << " " << why << ";";
+    }
+  }
   result.note = note.str();
   FinishDecisions(result);
   result.seconds = SecondsSince(start);

@@ -22,6 +22,12 @@
 // lambda = c * sigma * sqrt(2 n log p), sigma from the unpenalized least
 // squares fit (universal threshold again).
 //
+// Not estimable (the policy of learner.h): an event stream with fewer than
+// 2 events has no intensity fit; every edge into it is kept and marked
+// undecided (rule "not estimable", the fit as witness with its reason), and
+// the note says so. Paths too short for the noise scale are refused instead
+// (all processes have the same number of increments, so no fit could be made).
+//
 // c is MethodSettings::penalty (default 1). Needs data (LearnInput::events
 // or ::paths); fails with the oracle.
 #pragma once

@@ -2,6 +2,8 @@
 
 #include <doctest/doctest.h>
 
+#include <cmath>
+
 #include "learners/independence/oracle_test.h"
 #include "sim/diffusion_model.h"
 #include "sim/diffusion_simulator.h"
@@ -38,6 +40,44 @@ TEST_CASE("Hawkes chain: the penalized fit finds the chain from long data") {
   CHECK(r.tests == 0);
   CHECK(r.test_kind == "none");
   CHECK(r.graph == Chain().graph);
+}
+
+TEST_CASE("a stream with fewer than 2 events: its fit is not estimable, edges into it kept undecided") {
+  // Hand-made data: x1 and x2 have events, x3 one event. The policy of
+  // learners/methods/learner.h: the 3 edges into x3 are kept, undecided, with
+  // the fit as a not-estimable witness (empty p-value) and its reason.
+  sim::EventData data;
+  data.names = {"x1", "x2", "x3"};
+  data.times.resize(3);
+  data.start = 0;
+  data.end = 100;
+  for (int i = 0; i < 60; ++i) {
+    data.times[0].push_back(0.5 + 1.6 * i);
+    data.times[1].push_back(1.1 + 1.5 * i);
+  }
+  data.times[2] = {42.0};
+  PenalizedFitLearner method;
+  LearnInput input;
+  input.events = &data;
+  const LearnResult r = *method.Learn(input);
+  int undecided = 0;
+  for (const EdgeDecision& d : r.decisions) {
+    if (d.edge.to != 2 || d.edge.kind != graph::EdgeKind::kDirected) {
+      CHECK_FALSE(d.undecided);
+      continue;
+    }
+    ++undecided;
+    CHECK(d.kept);
+    CHECK(d.undecided);
+    CHECK(d.rule == "not estimable");
+    REQUIRE(d.witnesses.size() == 1);
+    CHECK(d.witnesses[0].status == TestStatus::kNotEstimable);
+    CHECK(std::isnan(d.witnesses[0].p_value));
+    CHECK(d.witnesses[0].reason == "x3 has 1 event; its intensity fit needs at least 2");
+    CHECK(r.graph.HasDirected(d.edge.from, 2));
+  }
+  CHECK(undecided == 3);
+  CHECK(r.note.find("1 of 3 fits not estimable") != std::string::npos);
 }
 
 TEST_CASE("diffusion chain: the lasso on the drift regression finds the chain") {
