@@ -424,7 +424,6 @@ class EdgeAnswers {
       NoteUnknown(r, c, d, given);
       if (Refutes(q, ExactAnswer(r), p_e_, s_.level)) {
         open &= ~Bit(d);
-        refuting_ = {c, d, given, q, false, ExactAnswer(r)};
       } else if (q > s_.level && set_aside_.given == kNone) {
         set_aside_ = {c, d, given, q, false, false};
       }
@@ -433,10 +432,13 @@ class EdgeAnswers {
   }
 
   static constexpr Mask kNone = ~Mask{0};
+  // The condition that failed, as (source, target, given) queries: the
+  // separation first, then the connections that made it a violation (set
+  // by DirectedFails and SiblingFailsOneWay when they return a failure).
+  std::vector<std::tuple<int, int, Mask>> failure_;
   // Answers the conditions needed that could not be computed (at most 5):
   // an edge kept with any is undecided (learner.h policy, as maximal-search).
   std::vector<TestRecord> unknown_used_;
-  Separation refuting_{0, 0, kNone, 0, false, false};
   Separation set_aside_{0, 0, kNone, 0, false, false};
 
  private:
@@ -461,7 +463,11 @@ const char* DirectedFails(State& s, EdgeAnswers& ans, int a, int b) {
   const bool d2 = ForEachSubset(pool, [&](Mask c) {
     const Mask premise = ans.Possible(a, c) & (c | Bit(a) | Bit(b));
     const Mask from_b = ans.Conclusion(b, c, premise);
-    return ans.Premise(a, c, premise & ~from_b) == 0;
+    const Mask held = ans.Premise(a, c, premise & ~from_b);
+    if (held == 0) return true;
+    const int d = MaskToList(held).front();
+    ans.failure_ = {{b, d, c}, {a, d, c}};  // d not connected from b, but from a
+    return false;
   });
   if (!d2) return "D2";
   const bool d3 = ForEachSubset(all & ~Bit(a) & ~Bit(b), [&](Mask rest) {
@@ -473,7 +479,11 @@ const char* DirectedFails(State& s, EdgeAnswers& ans, int a, int b) {
       if (premise == 0 || ans.Premise(g, c, Bit(a)) == 0) continue;
       premise = ans.Premise(a, c, premise);
       const Mask open = ans.Conclusion(g, c, premise);
-      if (ans.Premise(g, c | Bit(a), premise & ~open) != 0) return false;
+      const Mask held = ans.Premise(g, c | Bit(a), premise & ~open);
+      if (held == 0) continue;
+      const int d = MaskToList(held).front();
+      ans.failure_ = {{g, d, c}, {g, a, c}, {a, d, c}, {g, d, c | Bit(a)}};
+      return false;
     }
     return true;
   });
@@ -487,7 +497,9 @@ bool SiblingFailsOneWay(State& s, EdgeAnswers& ans, int a, int b) {
     for (int g = 0; g < s.n; ++g) {
       if (Contains(c, g) || !Contains(ans.Possible(g, c), a)) continue;
       if (ans.Conclusion(g, c, Bit(b)) != 0) continue;
-      if (ans.Premise(g, c, Bit(a)) != 0) return false;
+      if (ans.Premise(g, c, Bit(a)) == 0) continue;
+      ans.failure_ = {{g, b, c}, {g, a, c}};  // b not connected from g, but a is
+      return false;
     }
     return true;
   });
@@ -509,12 +521,14 @@ void FinalPhase(State& s) {
     if (failed != nullptr) {
       d.phase = "final";
       d.rule = std::string(failed);  // not = failed: a g++ 12 -Wrestrict false positive
-      // The last refuting separation seen: with an early stop it is the one
-      // that failed the condition, or an implied one when none was tested.
+      // The separation that failed the condition (tested, or implied by the
+      // current graph), then the connections that made it a violation.
       d.witnesses.clear();
-      if (ans.refuting_.given != EdgeAnswers::kNone) {
-        const Separation& z = ans.refuting_;
-        d.witnesses.push_back(Witness(s, z.source, z.target, z.given));
+      for (size_t k = 0; k < ans.failure_.size(); ++k) {
+        const auto [c, t, given] = ans.failure_[k];
+        TestRecord w = Witness(s, c, t, given);
+        if (k > 0) w.dependent = w.dependent || w.implied;  // a premise the graphs imply
+        d.witnesses.push_back(w);
       }
       removed.push_back(e);
     } else if (!ans.unknown_used_.empty()) {
