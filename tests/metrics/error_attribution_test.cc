@@ -277,6 +277,12 @@ TEST_CASE("maximal-search, margin-search and exhaustive: not-estimable tests lea
       for (const learners::EdgeDecision& d : r.result.decisions) {
         // A removal's premises (the witnesses after its separation) are
         // connections: never a test that could not be computed.
+        // A final-phase removal of the two searches names the separation
+        // and at least one connection that made the condition fail.
+        if (!d.kept && d.phase == "final" && r.result.method != "exhaustive") {
+          CHECK_MESSAGE(d.witnesses.size() >= 2, r.result.method << " truth " << i << " rule " << d.rule);
+          if (d.witnesses.size() >= 2) CHECK(d.witnesses[1].dependent);
+        }
         for (size_t k = 1; !d.kept && k < d.witnesses.size(); ++k) {
           CHECK_MESSAGE(d.witnesses[k].status == TestStatus::kOk,
                         r.result.method << " truth " << i << " " << graph::EdgeText(r.result.graph, d.edge)
