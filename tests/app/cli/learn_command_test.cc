@@ -176,6 +176,30 @@ TEST_CASE("tests that cannot be computed: counted with reasons on stderr, no p-v
   std::filesystem::remove(file);
 }
 
+TEST_CASE("penalized-fit: a stream with one event has no fit; edges into it undecided, with a warning") {
+  // b has 30 events, a one: a's intensity cannot be fitted (penalized_fit_learner.h).
+  const auto file = std::filesystem::temp_directory_path() / "locind_learn_unfit.csv";
+  {
+    std::ofstream out(file);
+    out << "time,process\n";
+    for (int i = 0; i < 30; ++i) {
+      if (i == 7) out << 7.2 << ",a\n";
+      out << 7.5 + (i - 7) << ",b\n";
+    }
+  }
+  const auto dir = std::filesystem::temp_directory_path() / "locind_learn_unfit";
+  std::filesystem::remove_all(dir);
+  const Outcome o = Learn({file.string(), "--method", "penalized-fit", "--out", dir.string()});
+  CHECK(o.code == kExitOk);
+  CHECK(o.err.find("\nlocind learn: warning: 2 edges kept as undecided, their fits not estimable: a has 1 "
+                   "event; its intensity fit needs at least 2 (2)") != std::string::npos);
+  const std::string decisions = ReadAll(dir / "decisions.csv");
+  CHECK(decisions.find("\nb -> a,,undecided,fit,not estimable,a,b,a,,,not estimable: a has 1 event") !=
+        std::string::npos);
+  std::filesystem::remove_all(dir);
+  std::filesystem::remove(file);
+}
+
 TEST_CASE("bad input: one line, exit code 2, no output") {
   const Outcome unknown = Learn({"--oracle", kExample, "--method", "nope"});
   CHECK(unknown.code == kExitInputError);
