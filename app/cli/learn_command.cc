@@ -255,9 +255,8 @@ int Learn(const std::vector<std::string>& args, std::ostream& out, std::ostream&
       if (d.undecided && !d.witnesses.empty()) fits.push_back(d.witnesses.front());
     }
     if (!fits.empty()) {
-      const std::string reasons = NotEstimableWarning(fits);  // "... undecided): reason (count), ..."
       err << "locind learn: warning: " << fits.size() << " edges kept as undecided, their fits not estimable: "
-          << reasons.substr(reasons.find("): ") + 3) << "\n";
+          << NotEstimableReasons(fits) << "\n";
     }
   }
   return kExitOk;

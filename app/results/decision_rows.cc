@@ -121,25 +121,27 @@ std::string DecisionsJson(const learners::LearnResult& r) {
   return out.str();
 }
 
-std::string NotEstimableWarning(const std::vector<TestRecord>& log) {
+std::string NotEstimableReasons(const std::vector<TestRecord>& records) {
   std::map<std::string, int> reasons;
-  int count = 0;
-  for (const TestRecord& t : log) {
-    if (Estimable(t)) continue;
-    ++count;
-    ++reasons[t.reason.empty() ? "no reason given" : t.reason];
+  for (const TestRecord& t : records) {
+    if (!Estimable(t)) ++reasons[t.reason.empty() ? "no reason given" : t.reason];
   }
-  if (count == 0) return "";
   std::vector<std::pair<std::string, int>> sorted(reasons.begin(), reasons.end());
   std::stable_sort(sorted.begin(), sorted.end(),
                    [](const auto& x, const auto& y) { return x.second > y.second; });
-  std::string out = std::to_string(count) + " of " + std::to_string(log.size()) +
-                    " tests not estimable (neither separation nor dependence; their edges kept "
-                    "as undecided): ";
+  std::string out;
   for (size_t i = 0; i < sorted.size(); ++i) {
     out += (i ? ", " : "") + sorted[i].first + " (" + std::to_string(sorted[i].second) + ")";
   }
   return out;
+}
+
+std::string NotEstimableWarning(const std::vector<TestRecord>& log) {
+  const auto count = std::count_if(log.begin(), log.end(), [](const TestRecord& t) { return !Estimable(t); });
+  if (count == 0) return "";
+  return std::to_string(count) + " of " + std::to_string(log.size()) +
+         " tests not estimable (neither separation nor dependence; their edges kept as undecided): " +
+         NotEstimableReasons(log);
 }
 
 }  // namespace locind::app

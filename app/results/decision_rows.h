@@ -47,5 +47,8 @@ std::string DecisionsJson(const learners::LearnResult& r);
 // Tests that could not be computed: "N of M tests not estimable: REASON (k),
 // ..." (distinct reasons, most frequent first); empty when there are none.
 std::string NotEstimableWarning(const std::vector<learners::TestRecord>& log);
+// The distinct reasons of the records that could not be computed, "REASON
+// (k), ..." most frequent first; empty when there are none.
+std::string NotEstimableReasons(const std::vector<learners::TestRecord>& records);
 
 }  // namespace locind::app

@@ -152,6 +152,16 @@ Status WriteDrawings(const std::string& dir, const StudyTruths& truths) {
   return Status::Ok();
 }
 
+// The record of a row, its truth numbered by first appearance in `truths`:
+// the cluster bootstrap resamples truths, and the numbers only group them.
+metrics::ReplicateRecord NumberedRecord(const ReplicateRow& r, std::vector<std::string>& truths) {
+  metrics::ReplicateRecord record = RecordOf(r);
+  auto it = std::find(truths.begin(), truths.end(), r.truth);
+  record.truth = static_cast<int>(it - truths.begin());
+  if (it == truths.end()) truths.push_back(r.truth);
+  return record;
+}
+
 }  // namespace
 
 metrics::LearnerReach ReachOf(const std::string& method) {
@@ -168,15 +178,9 @@ metrics::LearnerReach ReachOf(const std::string& method) {
 
 metrics::CellSummary SummarizeCell(const StudySpec& study, const Cell& cell, int learner,
                                    const std::vector<ReplicateRow>& rows) {
-  // Truths numbered by first appearance: the cluster bootstrap resamples them.
   std::vector<std::string> truths;
   std::vector<metrics::ReplicateRecord> records;
-  for (const ReplicateRow& r : rows) {
-    records.push_back(RecordOf(r));
-    auto it = std::find(truths.begin(), truths.end(), r.truth);
-    records.back().truth = static_cast<int>(it - truths.begin());
-    if (it == truths.end()) truths.push_back(r.truth);
-  }
+  for (const ReplicateRow& r : rows) records.push_back(NumberedRecord(r, truths));
   base::RandomStream random(base::StreamKey{study.seed, cell.key, static_cast<uint64_t>(learner),
                                               kPurposeSummary});
   return metrics::Summarize(records, ReachOf(study.learners[learner].method), random);
@@ -231,36 +235,31 @@ std::string SummaryCsv(const StudySpec& study, const std::vector<Cell>& cells,
 
 std::string ComparisonsCsv(const StudySpec& study, const std::vector<Cell>& cells,
                            const std::map<Unit, UnitResult>& units) {
-  // rows[cell][learner][replicate]: pairs are matched by replicate number.
+  // records[cell][learner]: replicate -> record, truths numbered per cell;
+  // pairs are matched by replicate number.
   const size_t learners = study.learners.size();
-  std::vector<std::vector<std::map<int, const ReplicateRow*>>> rows(
-      cells.size(), std::vector<std::map<int, const ReplicateRow*>>(learners));
+  std::vector<std::vector<std::map<int, metrics::ReplicateRecord>>> records(
+      cells.size(), std::vector<std::map<int, metrics::ReplicateRecord>>(learners));
+  std::vector<std::vector<std::string>> truths(cells.size());
   for (const auto& [unit, result] : units) {
     for (const ReplicateRow& r : result.rows) {
       for (size_t l = 0; l < learners; ++l) {
-        if (study.learners[l].label == r.learner) rows[unit.cell][l][r.replicate] = &r;
+        if (study.learners[l].label == r.learner) {
+          records[unit.cell][l][r.replicate] = NumberedRecord(r, truths[unit.cell]);
+        }
       }
     }
   }
   std::string out = ComparisonHeader() + "\n";
   for (const Cell& c : cells) {
-    // Truths numbered by first appearance, as in SummarizeCell.
-    std::vector<std::string> truths;
-    auto record = [&truths](const ReplicateRow& r) {
-      metrics::ReplicateRecord rec = RecordOf(r);
-      auto it = std::find(truths.begin(), truths.end(), r.truth);
-      rec.truth = static_cast<int>(it - truths.begin());
-      if (it == truths.end()) truths.push_back(r.truth);
-      return rec;
-    };
     for (size_t l = 1; l < learners; ++l) {
       for (size_t ref = 0; ref < l; ++ref) {
         std::vector<metrics::ReplicateRecord> mine, theirs;
-        for (const auto& [replicate, row] : rows[c.index][l]) {
-          auto other = rows[c.index][ref].find(replicate);
-          if (other == rows[c.index][ref].end()) continue;
-          mine.push_back(record(*row));
-          theirs.push_back(record(*other->second));
+        for (const auto& [replicate, record] : records[c.index][l]) {
+          auto other = records[c.index][ref].find(replicate);
+          if (other == records[c.index][ref].end()) continue;
+          mine.push_back(record);
+          theirs.push_back(other->second);
         }
         if (mine.empty()) continue;
         base::RandomStream random(base::StreamKey{study.seed, c.key, 1024 * l + ref, kPurposeComparison});

@@ -204,11 +204,12 @@ Result<LearnResult> PenalizedFitLearner::Learn(const LearnInput& input) {
   // undecided when its target's fit could not be made (the witness is that
   // fit, as a not-estimable record of b from a given the others).
   const int n = static_cast<int>(parents.size());
-  int undecided_targets = 0;
-  for (int b = 0; b < n; ++b) undecided_targets += !unfit.empty() && !unfit[b].empty();
+  unfit.resize(n);
+  const auto undecided_targets =
+      std::count_if(unfit.begin(), unfit.end(), [](const std::string& why) { return !why.empty(); });
   for (int a = 0; a < n; ++a) {
     for (int b = 0; b < n; ++b) {
-      if (!unfit.empty() && !unfit[b].empty()) {
+      if (!unfit[b].empty()) {
         TestRecord w;
         w.target = b;
         w.sources = {a};
